@@ -1,0 +1,104 @@
+/**
+ * The scene document shared by the server (validation, storage) and the client (editor, view).
+ * Pure: zod only. Angles in degrees, times ISO 8601 UTC.
+ */
+import { z } from 'zod';
+
+export const isoUtc = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]00:?00)$/, 'must be an ISO 8601 UTC time such as 2026-03-20T19:30:00Z')
+  .refine((s) => !Number.isNaN(Date.parse(s)), 'is not a real date');
+
+export const timeZone = z.string().min(1).max(64).refine((tz) => {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: tz });
+    return true;
+  } catch {
+    return false;
+  }
+}, 'must be an IANA time zone such as Europe/Madrid');
+
+export const siteSchema = z.object({
+  name: z.string().trim().min(1).max(120),
+  lat: z.number().min(-90).max(90),
+  lon: z.number().min(-180).max(180),
+  height: z.number().min(-500).max(9000).default(0),
+  timeZone: timeZone.default('UTC'),
+});
+export type Site = z.infer<typeof siteSchema>;
+
+export const LAYER_KEYS = [
+  'horizon', 'equator', 'ecliptic', 'meridian', 'primeVertical', 'galactic',
+  'altAzGrid', 'raDecGrid', 'eclipticGrid', 'referencePoints',
+  'stars', 'starLabels', 'bodies', 'bodyLabels', 'envelope', 'targets', 'pins', 'comments', 'ground',
+] as const;
+export type LayerKey = (typeof LAYER_KEYS)[number];
+
+export const layersSchema = z
+  .object({
+    ...Object.fromEntries(LAYER_KEYS.map((k) => [k, z.boolean()])) as Record<LayerKey, z.ZodBoolean>,
+    limitingMagnitude: z.number().min(-2).max(8),
+  })
+  .partial();
+export type Layers = z.infer<typeof layersSchema>;
+
+export const DEFAULT_LAYERS: Required<Layers> = {
+  horizon: true, equator: true, ecliptic: true, meridian: true, primeVertical: false, galactic: false,
+  altAzGrid: false, raDecGrid: false, eclipticGrid: false, referencePoints: true,
+  stars: true, starLabels: true, bodies: true, bodyLabels: true, envelope: true, targets: true, pins: true,
+  comments: true, ground: true, limitingMagnitude: 5.5,
+};
+
+export const cameraSchema = z.object({
+  mode: z.enum(['observer', 'sphere']).default('observer'),
+  /** Direction looked at (observer view) or seen from (sphere view), horizontal frame. */
+  azDeg: z.number().min(0).max(360).default(180),
+  altDeg: z.number().min(-90).max(90).default(20),
+  fovDeg: z.number().min(5).max(150).default(90),
+});
+export type Camera = z.infer<typeof cameraSchema>;
+
+export const BODY_NAMES = ['sun', 'moon', 'mercury', 'venus', 'mars', 'jupiter', 'saturn', 'uranus', 'neptune'] as const;
+
+export const targetSchema = z.discriminatedUnion('kind', [
+  z.object({ id: z.string().min(1).max(40), kind: z.literal('star'), name: z.string().trim().min(1).max(120), hr: z.number().int().min(1).max(9110), notes: z.string().max(2000).optional() }),
+  z.object({ id: z.string().min(1).max(40), kind: z.literal('body'), name: z.string().trim().min(1).max(120), body: z.enum(BODY_NAMES), notes: z.string().max(2000).optional() }),
+  z.object({
+    id: z.string().min(1).max(40),
+    kind: z.literal('custom'),
+    name: z.string().trim().min(1).max(120),
+    /** ICRS/J2000 degrees. */
+    ra: z.number().min(0).lt(360),
+    dec: z.number().min(-90).max(90),
+    epoch: z.number().min(1800).max(2200).optional(),
+    /** Proper motion, mas/yr (μα* = μα cos δ). */
+    pmra: z.number().min(-20000).max(20000).optional(),
+    pmdec: z.number().min(-20000).max(20000).optional(),
+    notes: z.string().max(2000).optional(),
+  }),
+]);
+export type Target = z.infer<typeof targetSchema>;
+
+/** Pins live in a named frame: horizontal pins stay on the landscape, equatorial pins turn with the sky. */
+export const pinSchema = z.object({
+  id: z.string().min(1).max(40),
+  kind: z.enum(['label', 'arrow', 'arc', 'region']),
+  frame: z.enum(['horizontal', 'equatorial']),
+  /** [azimuth, altitude] (horizontal) or [ra, dec] (equatorial), degrees; label 1 point, arrow/arc ≥ 2, region ≥ 3. */
+  points: z.array(z.tuple([z.number().min(0).max(360), z.number().min(-90).max(90)])).min(1).max(64),
+  label: z.string().max(200).default(''),
+  color: z.string().regex(/^#[0-9a-fA-F]{6}$/).optional(),
+});
+export type Pin = z.infer<typeof pinSchema>;
+
+export const stepSchema = z.object({
+  id: z.string().min(1).max(40),
+  title: z.string().max(120).default(''),
+  time: isoUtc,
+  camera: cameraSchema.partial().optional(),
+  layers: layersSchema.optional(),
+  /** Markdown, rendered without HTML. */
+  caption: z.string().max(10_000).default(''),
+  pinId: z.string().max(40).nullable().optional(),
+});
+export type Step = z.infer<typeof stepSchema>;

@@ -1,0 +1,39 @@
+import { createClient, type Client } from '@libsql/client';
+import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
+import * as schema from './schema';
+
+export type Db = LibSQLDatabase<typeof schema>;
+/** A transaction handle; services accept `Db | Tx`. */
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type DbOrTx = Db | Tx;
+
+export const DEFAULT_DATABASE_URL = 'file:./data/armilla.db';
+
+export interface DbHandle {
+  db: Db;
+  client: Client;
+}
+
+/**
+ * One client per process. For a local file we switch on WAL (readers never block the writer),
+ * synchronous=FULL (an acknowledged write survives a power cut, not only a process crash: the
+ * durability promise of the product outweighs the few ms per commit), foreign keys, and a busy
+ * timeout so that several app instances on one file queue instead of failing.
+ */
+export async function openDb(url = DEFAULT_DATABASE_URL, authToken?: string): Promise<DbHandle> {
+  if (url.startsWith('file:')) {
+    const { mkdirSync } = await import('node:fs');
+    const { dirname } = await import('node:path');
+    const path = url.slice('file:'.length);
+    if (path && path !== ':memory:') mkdirSync(dirname(path), { recursive: true });
+  }
+  const client = createClient(authToken ? { url, authToken } : { url });
+  if (url.startsWith('file:')) {
+    await client.execute('PRAGMA journal_mode = WAL');
+    await client.execute('PRAGMA synchronous = FULL');
+    await client.execute('PRAGMA busy_timeout = 5000');
+  }
+  await client.execute('PRAGMA foreign_keys = ON');
+  const db = drizzle(client, { schema, casing: 'snake_case' });
+  return { db, client };
+}

@@ -1,0 +1,11 @@
+import { migrate } from 'drizzle-orm/libsql/migrator';
+import { fileURLToPath } from 'node:url';
+import { resolve } from 'node:path';
+import type { Db } from './client';
+
+/** Folder of the committed SQL migrations, resolved from the repository root. */
+export const MIGRATIONS_FOLDER = resolve(fileURLToPath(new URL('../../../../drizzle', import.meta.url)));
+
+export async function migrateDb(db: Db, folder = MIGRATIONS_FOLDER): Promise<void> {
+  await migrate(db, { migrationsFolder: folder });
+}

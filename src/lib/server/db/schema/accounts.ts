@@ -1,0 +1,39 @@
+import { sqliteTable, text, integer, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+
+export const users = sqliteTable(
+  'users',
+  {
+    id: text().primaryKey(),
+    email: text().notNull(),
+    name: text().notNull(),
+    passwordHash: text().notNull(),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [uniqueIndex('users_email_uq').on(t.email)],
+);
+
+export const sessions = sqliteTable(
+  'sessions',
+  {
+    id: text().primaryKey(),
+    userId: text()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: integer().notNull(),
+  },
+  (t) => [index('sessions_user_idx').on(t.userId)],
+);
+
+export const passwordResets = sqliteTable(
+  'password_resets',
+  {
+    /** SHA-256 of the token: a database leak does not hand out working links. */
+    tokenHash: text().primaryKey(),
+    userId: text()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    usedAt: integer({ mode: 'timestamp_ms' }),
+  },
+  (t) => [index('password_resets_user_idx').on(t.userId)],
+);

@@ -1,0 +1,3 @@
+export * from './accounts';
+export * from './teams';
+export * from './ops';

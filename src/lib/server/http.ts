@@ -1,0 +1,106 @@
+import type { APIContext, APIRoute } from 'astro';
+import { ZodError, type ZodType, type ZodTypeDef } from 'zod';
+import { nanoid } from 'nanoid';
+
+/** The one error type of the server. `status` follows the API contract. */
+export class HttpError extends Error {
+  constructor(
+    public readonly status: number,
+    public readonly code: string,
+    message: string,
+    public readonly field?: string,
+    /** Extra top-level members of the error body, e.g. `{ scene }` on a 409 or `{ rows }` on a 422. */
+    public readonly extra?: Record<string, unknown>,
+    public readonly headers?: Record<string, string>,
+  ) {
+    super(message);
+  }
+}
+
+export const badRequest = (message: string, field?: string, code = 'invalid') => new HttpError(400, code, message, field);
+export const unauthorized = () => new HttpError(401, 'unauthorized', 'Sign in first.');
+export const forbidden = (message = 'You are not allowed to do that.') => new HttpError(403, 'forbidden', message);
+export const notFound = (what = 'Resource') => new HttpError(404, 'not_found', `${what} not found.`);
+
+export function json(data: unknown, status = 200, headers: Record<string, string> = {}): Response {
+  return new Response(status === 204 ? null : JSON.stringify(data), {
+    status,
+    headers: { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store', ...headers },
+  });
+}
+
+export const noContent = () => new Response(null, { status: 204, headers: { 'cache-control': 'no-store' } });
+
+function errorBody(e: HttpError) {
+  return { error: { code: e.code, message: e.message, ...(e.field ? { field: e.field } : {}) }, ...(e.extra ?? {}) };
+}
+
+export function fieldOf(err: ZodError): string | undefined {
+  const path = err.issues[0]?.path ?? [];
+  return path.length ? path.join('.') : undefined;
+}
+
+export function fromZod(err: ZodError, status = 400): HttpError {
+  const issue = err.issues[0];
+  const field = fieldOf(err);
+  const message = issue ? (field ? `${field}: ${issue.message}` : issue.message) : 'Invalid input.';
+  return new HttpError(status, 'invalid', message, field);
+}
+
+/** Maps any thrown error to the contract's error body. Unknown errors are logged with a request id → 500. */
+export function errorResponse(e: unknown): Response {
+  if (e instanceof HttpError) return json(errorBody(e), e.status, e.headers);
+  if (e instanceof ZodError) return json(errorBody(fromZod(e)), 400);
+  const requestId = nanoid(10);
+  console.error(`[${requestId}] unhandled error`, e);
+  return json({ error: { code: 'internal', message: `Internal error (request ${requestId}).` } }, 500);
+}
+
+/** Wraps an endpoint: thrown HttpError / ZodError become error responses. */
+export function route(handler: (ctx: APIContext) => Promise<Response> | Response): APIRoute {
+  return async (ctx) => {
+    try {
+      return await handler(ctx);
+    } catch (e) {
+      return errorResponse(e);
+    }
+  };
+}
+
+/** Query string → object; repeated keys keep the last value. */
+export function parseQuery<T>(schema: ZodType<T, ZodTypeDef, unknown>, url: URL): T {
+  const raw = Object.fromEntries(url.searchParams.entries());
+  const r = schema.safeParse(raw);
+  if (!r.success) throw fromZod(r.error);
+  return r.data;
+}
+
+export const MAX_JSON_BYTES = 1_000_000;
+
+/** Reads a JSON body: 400 `malformed_json` when it does not parse, 400 naming the field when it does not validate. */
+export async function parseJson<T>(schema: ZodType<T, ZodTypeDef, unknown>, request: Request): Promise<T> {
+  const len = Number(request.headers.get('content-length') ?? 0);
+  if (len > MAX_JSON_BYTES) throw new HttpError(413, 'too_large', 'Request body too large.');
+  const text = await request.text();
+  if (text.length > MAX_JSON_BYTES) throw new HttpError(413, 'too_large', 'Request body too large.');
+  let raw: unknown;
+  try {
+    raw = text.length ? JSON.parse(text) : {};
+  } catch {
+    throw new HttpError(400, 'malformed_json', 'The request body is not valid JSON.');
+  }
+  const r = schema.safeParse(raw);
+  if (!r.success) throw fromZod(r.error);
+  return r.data;
+}
+
+/** Strict ISO 8601 UTC instant (`Z` or `+00:00`); a time without a zone is ambiguous and refused. */
+export const ISO_UTC_RE = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]00:?00)$/;
+
+export function clientAddress(ctx: Pick<APIContext, 'request' | 'clientAddress'>): string {
+  try {
+    return ctx.clientAddress;
+  } catch {
+    return 'unknown';
+  }
+}
