@@ -1,0 +1,71 @@
+/**
+ * The one place that decides who may do what. Every route asks here.
+ * Resources of a team the caller is not in answer 404 (never reveal they exist).
+ */
+import { and, eq } from 'drizzle-orm';
+import type { User } from 'lucia';
+import type { DbOrTx } from './db/client';
+import { memberships, type Role } from './db/schema';
+import { HttpError, notFound, unauthorized } from './http';
+
+export type Action =
+  | 'team.read'
+  | 'team.manage'
+  | 'scene.read'
+  | 'scene.comment'
+  | 'comment.resolve'
+  | 'scene.write'
+  | 'scene.share'
+  | 'scene.delete'
+  | 'site.write'
+  | 'envelope.write';
+
+const RANK: Record<Role, number> = { viewer: 0, reviewer: 1, editor: 2, owner: 3 };
+
+const NEEDS: Record<Action, Role> = {
+  'team.read': 'viewer',
+  'scene.read': 'viewer',
+  'scene.comment': 'reviewer',
+  'comment.resolve': 'reviewer',
+  'scene.write': 'editor',
+  'scene.share': 'editor',
+  'scene.delete': 'editor',
+  'site.write': 'editor',
+  'envelope.write': 'editor',
+  'team.manage': 'owner',
+};
+
+/** Pure: may a member with `role` perform `action`? (`null` = not a member.) */
+export function can(role: Role | null, action: Action): boolean {
+  return role !== null && RANK[role] >= RANK[NEEDS[action]];
+}
+
+/** Share links carry a role of their own (viewer or reviewer). */
+export function linkCan(linkRole: 'viewer' | 'reviewer', action: Action): boolean {
+  return can(linkRole, action) && (action === 'scene.read' || action === 'scene.comment');
+}
+
+export function requireUser(locals: App.Locals): User {
+  if (!locals.user) throw unauthorized();
+  return locals.user;
+}
+
+export async function roleIn(db: DbOrTx, userId: string, teamId: string): Promise<Role | null> {
+  const rows = await db
+    .select({ role: memberships.role })
+    .from(memberships)
+    .where(and(eq(memberships.userId, userId), eq(memberships.teamId, teamId)))
+    .limit(1);
+  return rows[0]?.role ?? null;
+}
+
+/**
+ * Throws 404 when the user is not in the team, 403 when the role is too low; returns the role.
+ * `what` names the resource in the 404 message.
+ */
+export async function authorize(db: DbOrTx, user: User, teamId: string, action: Action, what = 'Resource'): Promise<Role> {
+  const role = await roleIn(db, user.id, teamId);
+  if (role === null) throw notFound(what);
+  if (!can(role, action)) throw new HttpError(403, 'forbidden', `Your role (${role}) cannot do that.`);
+  return role;
+}
