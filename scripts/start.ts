@@ -54,7 +54,7 @@ if (!smtpUrl) {
   const maildev = spawn(
     process.execPath,
     [
-      'node_modules/maildev/dist/bin/maildev.js',
+      'node_modules/maildev/bin/maildev',
       '--smtp', String(env.MAILDEV_SMTP_PORT),
       '--web', String(env.MAILDEV_WEB_PORT),
       '--ip', '127.0.0.1',
