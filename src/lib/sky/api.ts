@@ -1,0 +1,172 @@
+/**
+ * The sky computation API (contract: GET /api/sky/observe, GET /api/sky/events, POST /api/sky/windows):
+ * zod schemas for the inputs and pure functions from validated input to the response body. The
+ * routes in src/pages/api/sky/ only parse, rate-limit and call these.
+ */
+import { z } from 'zod';
+import { BODY_NAMES, type BodyName } from './bodies';
+import { observe } from './observe';
+import { skyEvents } from './events';
+import { visibilityWindows, type WindowTarget } from './windows';
+import { envelopeSchema } from './envelope';
+import type { SiteInput } from './frames';
+
+export const MAX_SPAN_DAYS = 31;
+export const MAX_TARGETS = 2000;
+/** ISO 8601 instant in UTC (`Z` or `+00:00`); a time without a zone is ambiguous and refused. */
+export const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]00:?00)$/;
+
+/** A query-string number: '' and absent are "missing", anything else must parse completely. */
+const qNum = (min: number, max: number, what: string) =>
+  z.preprocess(
+    (v) => (v === undefined || v === '' ? undefined : typeof v === 'string' ? Number(v.trim()) : v),
+    z.number({ invalid_type_error: `must be a number`, required_error: 'is required' }).finite('must be a finite number').min(min, `${what}`).max(max, `${what}`),
+  );
+const num = (min: number, max: number, what: string) =>
+  z.number({ invalid_type_error: 'must be a number', required_error: 'is required' }).finite('must be a finite number').min(min, what).max(max, what);
+
+const instant = z
+  .string({ required_error: 'is required', invalid_type_error: 'must be an ISO 8601 UTC time' })
+  .regex(ISO_UTC, 'must be an ISO 8601 UTC time such as 2026-03-20T19:30:00Z')
+  .transform((s, ctx) => {
+    const d = new Date(s);
+    if (Number.isNaN(d.getTime())) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'is not a valid date' });
+      return z.NEVER;
+    }
+    return d;
+  });
+
+const bodyEnum = z.enum(BODY_NAMES as unknown as [BodyName, ...BodyName[]], {
+  errorMap: () => ({ message: `must be one of ${BODY_NAMES.join(', ')}` }),
+});
+
+const LAT = 'must be between -90 and 90';
+const LON = 'must be between -180 and 360 (east positive)';
+const HEIGHT = 'must be between -500 and 10000 m';
+const RA = 'must be between 0 and 360 degrees';
+const DEC = 'must be between -90 and 90 degrees';
+
+const siteQuery = {
+  lat: qNum(-90, 90, LAT),
+  lon: qNum(-180, 360, LON),
+  height: qNum(-500, 10000, HEIGHT).optional().default(0),
+};
+const targetQuery = {
+  ra: qNum(0, 360, RA).optional(),
+  dec: qNum(-90, 90, DEC).optional(),
+  body: z.preprocess((v) => (v === '' ? undefined : typeof v === 'string' ? v.toLowerCase() : v), bodyEnum.optional()),
+};
+
+function checkTarget(v: { ra?: number; dec?: number; body?: BodyName }, ctx: z.RefinementCtx) {
+  const hasRa = v.ra !== undefined, hasDec = v.dec !== undefined;
+  if (v.body !== undefined && (hasRa || hasDec)) ctx.addIssue({ code: 'custom', path: ['body'], message: 'give either body or ra and dec, not both' });
+  else if (v.body === undefined && !hasRa && !hasDec) ctx.addIssue({ code: 'custom', path: ['body'], message: 'give either body or ra and dec' });
+  else if (v.body === undefined && !hasRa) ctx.addIssue({ code: 'custom', path: ['ra'], message: 'is required with dec' });
+  else if (v.body === undefined && !hasDec) ctx.addIssue({ code: 'custom', path: ['dec'], message: 'is required with ra' });
+}
+
+export const observeQuerySchema = z
+  .object({
+    ...siteQuery,
+    time: instant,
+    ...targetQuery,
+    refraction: z.preprocess((v) => (v === '' ? undefined : v), z.enum(['none', 'standard'], { errorMap: () => ({ message: 'must be none or standard' }) }).optional().default('standard')),
+  })
+  .superRefine(checkTarget);
+export type ObserveQuery = z.infer<typeof observeQuerySchema>;
+
+function checkSpan(v: { from: Date; to: Date }, ctx: z.RefinementCtx) {
+  const span = v.to.getTime() - v.from.getTime();
+  if (!(span > 0)) ctx.addIssue({ code: 'custom', path: ['to'], message: 'must be after from' });
+  else if (span > MAX_SPAN_DAYS * 86400000) ctx.addIssue({ code: 'custom', path: ['to'], message: `the span must not exceed ${MAX_SPAN_DAYS} days` });
+}
+
+export const eventsQuerySchema = z
+  .object({ ...siteQuery, ...targetQuery, from: instant, to: instant })
+  .superRefine((v, ctx) => {
+    checkTarget(v, ctx);
+    checkSpan(v, ctx);
+  });
+export type EventsQuery = z.infer<typeof eventsQuerySchema>;
+
+const windowTargetSchema = z.union(
+  [
+    z.object({ name: z.string().min(1).max(200), ra: num(0, 360, RA), dec: num(-90, 90, DEC) }).strict(),
+    z.object({ name: z.string().min(1).max(200), body: bodyEnum }).strict(),
+  ],
+  { errorMap: (issue, ctx) => (issue.code === 'invalid_union' ? { message: 'each target needs a name and either ra and dec or body' } : { message: ctx.defaultError }) },
+);
+
+export const windowsBodySchema = z
+  .object({
+    site: z.object({ lat: num(-90, 90, LAT), lon: num(-180, 360, LON), height: num(-500, 10000, HEIGHT).optional().default(0) }),
+    envelope: envelopeSchema,
+    targets: z.array(windowTargetSchema).max(MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
+    from: instant,
+    to: instant,
+  })
+  .superRefine(checkSpan);
+export type WindowsBody = z.infer<typeof windowsBodySchema>;
+
+const site = (lat: number, lon: number, height: number): SiteInput => ({ latDeg: lat, lonDeg: lon > 180 ? lon - 360 : lon, heightM: height });
+const target = (q: { ra?: number; dec?: number; body?: BodyName }) =>
+  q.body !== undefined ? { body: q.body } : { raDeg: q.ra! % 360, decDeg: q.dec! };
+
+export function observeResponse(q: ObserveQuery) {
+  const o = observe(site(q.lat, q.lon, q.height), q.time, target(q), { refraction: q.refraction });
+  return {
+    azimuth: o.azDeg,
+    altitude: o.altDeg,
+    hourAngle: o.haHours,
+    raOfDate: o.raOfDateDeg,
+    decOfDate: o.decOfDateDeg,
+    lst: o.lstHours,
+    airmass: o.airmass,
+    constellation: o.constellation,
+    time: q.time.toISOString(),
+    refraction: q.refraction,
+    ...(o.distanceKm !== undefined ? { distanceKm: o.distanceKm } : {}),
+    ...(o.magnitude !== undefined ? { magnitude: o.magnitude } : {}),
+    ...(o.illuminatedFraction !== undefined ? { illuminatedFraction: o.illuminatedFraction } : {}),
+    ...(o.phaseAngleDeg !== undefined ? { phaseAngle: o.phaseAngleDeg } : {}),
+    ...(o.elongationDeg !== undefined ? { elongation: o.elongationDeg } : {}),
+  };
+}
+
+export function eventsResponse(q: EventsQuery) {
+  const r = skyEvents(site(q.lat, q.lon, q.height), target(q), q.from, q.to);
+  return {
+    events: r.events.map((e) => ({ kind: e.kind, time: e.time.toISOString() })),
+    alwaysUp: r.alwaysUp,
+    alwaysDown: r.alwaysDown,
+  };
+}
+
+/**
+ * Grid step for the windows search: 120 s up to 2 days; longer spans and many targets get a coarser
+ * grid so one request stays near 5 million limit evaluations at most (crossings are still refined
+ * to ≤ 1 s; only windows shorter than the step can be missed). Reported back as `stepSec`.
+ */
+export function windowsStepSec(spanMs: number, nTargets: number): number {
+  const base = spanMs <= 2 * 86400000 ? 120 : 300;
+  const budget = 5e6;
+  const needed = ((spanMs / 1000) * Math.max(1, nTargets)) / budget;
+  return Math.min(1800, Math.max(base, Math.ceil(needed / 60) * 60));
+}
+
+export function windowsResponse(b: WindowsBody) {
+  const targets: WindowTarget[] = b.targets.map((t) =>
+    'body' in t ? { name: t.name, body: t.body } : { name: t.name, raDeg: t.ra % 360, decDeg: t.dec },
+  );
+  const stepSec = windowsStepSec(b.to.getTime() - b.from.getTime(), targets.length);
+  const res = visibilityWindows(site(b.site.lat, b.site.lon, b.site.height), b.envelope, targets, b.from, b.to, { stepSec });
+  return {
+    targets: res.map((r) => ({
+      name: r.name,
+      windows: r.windows.map((w) => ({ start: w.start.toISOString(), end: w.end.toISOString(), openedBy: w.openedBy, closedBy: w.closedBy })),
+      reasons: r.reasons,
+    })),
+    stepSec,
+  };
+}
