@@ -2,6 +2,9 @@ import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
   test: {
+    // Integration and browser files each start their own server (and Chromium): two at a time suits 2 cores.
+    maxWorkers: 2,
+    minWorkers: 1,
     projects: [
       {
         test: {
@@ -17,9 +20,6 @@ export default defineConfig({
           globalSetup: ['tests/integration/helpers/global-setup.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,
-          // Each file starts its own server and database; two at a time suits a 2-core machine.
-          maxWorkers: 2,
-          minWorkers: 1,
         },
       },
       {
@@ -29,7 +29,8 @@ export default defineConfig({
           globalSetup: ['tests/integration/helpers/global-setup.ts'],
           testTimeout: 120_000,
           hookTimeout: 120_000,
-          fileParallelism: false,
+          // Browser tests run one file at a time in a single fork.
+          poolOptions: { forks: { singleFork: true } },
         },
       },
     ],
