@@ -1,0 +1,197 @@
+/**
+ * Accounts: sign-up, sign-in (with throttling), password reset and change, the caller's profile.
+ * Routes parse and respond; the rules live here. Session cookies stay in ./auth.
+ */
+import { createHash, randomBytes } from 'node:crypto';
+import { and, eq, gt, isNull, ne } from 'drizzle-orm';
+import { nanoid } from 'nanoid';
+import { z } from 'zod';
+import { audit } from './audit';
+import { dummyHash, hashPassword, verifyPassword } from './auth/password';
+import type { DbOrTx } from './db/client';
+import { memberships, passwordResets, rateLimits, sessions, teams, users } from './db/schema';
+import { HttpError } from './http';
+import { rateCount, rateLimit } from './rate-limit';
+import { linkOrigin, sendMail } from './mail';
+import { passwordResetMail } from './mail/templates';
+import { listTeamsOf, type TeamSummary } from './teams';
+
+// ---- input schemas (shared with the forms in src/components/account) ----
+
+export const emailField = z.string({ required_error: 'is required' }).trim().toLowerCase().email('must be an e-mail address').max(254);
+export const passwordField = z.string({ required_error: 'is required' }).min(10, 'must be at least 10 characters').max(256, 'must be at most 256 characters');
+export const nameField = z.string({ required_error: 'is required' }).trim().min(1, 'is required').max(100, 'must be at most 100 characters');
+
+export const signUpInput = z.object({
+  email: emailField,
+  password: passwordField,
+  name: nameField,
+  /** Sign-up creates a personal team unless the person signs up to accept an invitation. */
+  personalTeam: z.boolean().default(true),
+});
+export const signInInput = z.object({
+  email: emailField,
+  // No length rule here: a wrong pair must answer 401, never a 400 that tells the rules apart.
+  password: z.string({ required_error: 'is required' }).min(1, 'is required').max(256),
+});
+export const resetRequestInput = z.object({ email: emailField });
+export const resetConfirmInput = z.object({ token: z.string({ required_error: 'is required' }).min(1).max(200), password: passwordField });
+export const changePasswordInput = z.object({
+  currentPassword: z.string({ required_error: 'is required' }).min(1, 'is required').max(256),
+  newPassword: passwordField,
+});
+export const profileInput = z.object({ name: nameField });
+
+export interface PublicUser {
+  id: string;
+  email: string;
+  name: string;
+}
+
+// ---- tokens: the mail carries the token, the database only its SHA-256 ----
+
+/** 256 random bits, base64url. */
+export const newToken = () => randomBytes(32).toString('base64url');
+export const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
+
+// ---- throttling ----
+
+/** Failed sign-ins allowed per window, per e-mail address and per client address. */
+export const SIGN_IN_LIMITS = { perEmail: 5, perAddress: 30, windowSec: 15 * 60 } as const;
+const RESET_LIMITS = { perEmail: 5, perAddress: 20, windowSec: 60 * 60 } as const;
+const SIGN_UP_LIMITS = { perAddress: 50, windowSec: 60 * 60 } as const;
+
+const tooMany = (windowSec: number, now = Date.now()) => {
+  const nowSec = Math.floor(now / 1000);
+  const windowStart = Math.floor(nowSec / windowSec) * windowSec;
+  return new HttpError(429, 'rate_limited', 'Too many failed attempts; try again later.', undefined, undefined, {
+    'retry-after': String(Math.max(1, windowStart + windowSec - nowSec)),
+  });
+};
+
+const INVALID_CREDENTIALS = () => new HttpError(401, 'invalid_credentials', 'The e-mail address or the password is wrong.');
+
+// ---- services ----
+
+export async function findUserByEmail(db: DbOrTx, email: string) {
+  const rows = await db.select().from(users).where(eq(users.email, email.trim().toLowerCase())).limit(1);
+  return rows[0] ?? null;
+}
+
+const isUniqueViolation = (e: unknown) => /UNIQUE constraint failed/i.test(String((e as { message?: string })?.message ?? e));
+
+export async function signUp(
+  db: DbOrTx,
+  input: z.infer<typeof signUpInput>,
+  clientAddr: string,
+): Promise<{ user: PublicUser; teams: TeamSummary[] }> {
+  await rateLimit(`signup:addr:${clientAddr}`, SIGN_UP_LIMITS.perAddress, SIGN_UP_LIMITS.windowSec);
+  if (await findUserByEmail(db, input.email)) throw new HttpError(409, 'email_taken', 'An account with this e-mail address exists already.', 'email');
+  const passwordHash = await hashPassword(input.password);
+  const now = new Date();
+  const user = { id: nanoid(), email: input.email, name: input.name };
+  try {
+    await db.transaction(async (tx) => {
+      await tx.insert(users).values({ ...user, passwordHash, createdAt: now });
+      if (input.personalTeam) {
+        const teamId = nanoid();
+        await tx.insert(teams).values({ id: teamId, name: `${input.name}’s team`, createdAt: now });
+        await tx.insert(memberships).values({ teamId, userId: user.id, role: 'owner', createdAt: now });
+        await audit(tx, { teamId, userId: user.id, action: 'team.create', subjectType: 'team', subjectId: teamId });
+      }
+      await audit(tx, { userId: user.id, action: 'account.create', subjectType: 'user', subjectId: user.id });
+    });
+  } catch (e) {
+    if (isUniqueViolation(e)) throw new HttpError(409, 'email_taken', 'An account with this e-mail address exists already.', 'email');
+    throw e;
+  }
+  return { user, teams: await listTeamsOf(db, user.id) };
+}
+
+/**
+ * Checks an e-mail/password pair. Unknown e-mails are compared against a dummy hash so that both
+ * failures take the same time and answer the same message. Only failures count towards the limits.
+ */
+export async function signIn(db: DbOrTx, input: z.infer<typeof signInInput>, clientAddr: string): Promise<PublicUser> {
+  const { perEmail, perAddress, windowSec } = SIGN_IN_LIMITS;
+  const emailKey = `signin:email:${input.email}`;
+  const addrKey = `signin:addr:${clientAddr}`;
+  if ((await rateCount(emailKey, windowSec)) >= perEmail || (await rateCount(addrKey, windowSec)) >= perAddress) {
+    throw tooMany(windowSec);
+  }
+  const user = await findUserByEmail(db, input.email);
+  const ok = await verifyPassword(user?.passwordHash ?? (await dummyHash()), input.password);
+  if (!user || !ok) {
+    await rateLimit(emailKey, Number.MAX_SAFE_INTEGER, windowSec);
+    await rateLimit(addrKey, Number.MAX_SAFE_INTEGER, windowSec);
+    throw INVALID_CREDENTIALS();
+  }
+  // A success clears the e-mail's failure count (not the address's: one address may try many accounts).
+  await db.delete(rateLimits).where(eq(rateLimits.key, emailKey));
+  return { id: user.id, email: user.email, name: user.name };
+}
+
+export const RESET_VALID_MINUTES = 60;
+
+/** Always succeeds from the caller's view (no account enumeration); mails a single-use link when the account exists. */
+export async function requestPasswordReset(db: DbOrTx, email: string, clientAddr: string, requestUrl: URL): Promise<void> {
+  await rateLimit(`reset:addr:${clientAddr}`, RESET_LIMITS.perAddress, RESET_LIMITS.windowSec);
+  await rateLimit(`reset:email:${email}`, RESET_LIMITS.perEmail, RESET_LIMITS.windowSec);
+  const user = await findUserByEmail(db, email);
+  if (!user) return;
+  const token = newToken();
+  await db.insert(passwordResets).values({
+    tokenHash: sha256(token),
+    userId: user.id,
+    expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000),
+  });
+  const mail = passwordResetMail({ name: user.name, url: `${linkOrigin(requestUrl)}/reset/${token}`, validMinutes: RESET_VALID_MINUTES });
+  // Not awaited: the answer must not take longer for a known address than for an unknown one.
+  sendMail({ to: user.email, ...mail }).catch((e) => console.error('[mail] password reset mail failed', e));
+}
+
+/** Sets the new password, spends every open reset token of the user and ends all of their sessions. */
+export async function confirmPasswordReset(db: DbOrTx, input: z.infer<typeof resetConfirmInput>): Promise<PublicUser> {
+  const passwordHash = await hashPassword(input.password);
+  return db.transaction(async (tx) => {
+    const now = new Date();
+    const rows = await tx
+      .select({ userId: passwordResets.userId })
+      .from(passwordResets)
+      .where(and(eq(passwordResets.tokenHash, sha256(input.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, now)))
+      .limit(1);
+    const userId = rows[0]?.userId;
+    if (!userId) throw new HttpError(400, 'invalid_token', 'This reset link is invalid, used or expired; ask for a new one.', 'token');
+    await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+    await tx.update(passwordResets).set({ usedAt: now }).where(and(eq(passwordResets.userId, userId), isNull(passwordResets.usedAt)));
+    await tx.delete(sessions).where(eq(sessions.userId, userId));
+    await audit(tx, { userId, action: 'account.password_reset', subjectType: 'user', subjectId: userId });
+    const u = (await tx.select().from(users).where(eq(users.id, userId)).limit(1))[0]!;
+    return { id: u.id, email: u.email, name: u.name };
+  });
+}
+
+/** Changes the password of a signed-in user and ends their other sessions. */
+export async function changePassword(db: DbOrTx, userId: string, currentSessionId: string, input: z.infer<typeof changePasswordInput>): Promise<void> {
+  const u = (await db.select().from(users).where(eq(users.id, userId)).limit(1))[0];
+  if (!u || !(await verifyPassword(u.passwordHash, input.currentPassword))) {
+    throw new HttpError(400, 'wrong_password', 'The current password is wrong.', 'currentPassword');
+  }
+  const passwordHash = await hashPassword(input.newPassword);
+  await db.transaction(async (tx) => {
+    await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
+    await tx.delete(sessions).where(and(eq(sessions.userId, userId), ne(sessions.id, currentSessionId)));
+    await audit(tx, { userId, action: 'account.password_change', subjectType: 'user', subjectId: userId });
+  });
+}
+
+export async function updateProfile(db: DbOrTx, userId: string, input: z.infer<typeof profileInput>): Promise<PublicUser> {
+  await db.update(users).set({ name: input.name }).where(eq(users.id, userId));
+  const u = (await db.select().from(users).where(eq(users.id, userId)).limit(1))[0]!;
+  return { id: u.id, email: u.email, name: u.name };
+}
+
+export async function me(db: DbOrTx, user: PublicUser): Promise<{ user: PublicUser; teams: TeamSummary[] }> {
+  return { user: { id: user.id, email: user.email, name: user.name }, teams: await listTeamsOf(db, user.id) };
+}
+

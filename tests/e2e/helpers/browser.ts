@@ -1,0 +1,65 @@
+/**
+ * Shared browser helper for e2e tests: Debian's headless Chromium through playwright-core, software
+ * rendering only (no GPU). Outside CI the browser tests skip when /usr/bin/chromium is missing; under
+ * CI=true they run anyway and fail at launch, so a missing browser can never pass silently.
+ */
+import { existsSync, mkdirSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { test } from 'vitest';
+
+export const CHROMIUM_PATH = '/usr/bin/chromium';
+export const OUTPUT_DIR = resolve('tests/e2e/output');
+
+export const chromiumAvailable = existsSync(CHROMIUM_PATH);
+/** `browserTest(...)` in place of `test(...)`: skipped only when the browser is absent and not in CI. */
+export const browserTest = chromiumAvailable || process.env.CI === 'true' ? test : test.skip;
+
+export async function launch(): Promise<Browser> {
+  if (!chromiumAvailable) throw new Error(`${CHROMIUM_PATH} is missing: install Debian's chromium (apt-get install -y chromium)`);
+  return chromium.launch({
+    executablePath: CHROMIUM_PATH,
+    headless: true,
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  });
+}
+
+export interface CapturedPage {
+  page: Page;
+  context: BrowserContext;
+  /** console.error lines and uncaught page errors, in order. */
+  errors: string[];
+  /** Errors other than failed network loads (a 4xx answer logs "Failed to load resource"). */
+  realErrors: () => string[];
+  /** Content-Security-Policy violations reported by the browser. */
+  cspViolations: () => string[];
+}
+
+export async function newPage(browser: Browser, opts: { baseURL?: string; viewport?: { width: number; height: number } } = {}): Promise<CapturedPage> {
+  const context = await browser.newContext({
+    ...(opts.baseURL ? { baseURL: opts.baseURL } : {}),
+    viewport: opts.viewport ?? { width: 1280, height: 800 },
+    colorScheme: 'dark',
+  });
+  const page = await context.newPage();
+  const errors: string[] = [];
+  page.on('console', (m) => {
+    if (m.type() === 'error') errors.push(m.text());
+  });
+  page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`));
+  return {
+    page,
+    context,
+    errors,
+    realErrors: () => errors.filter((e) => !/^Failed to load resource/.test(e)),
+    cspViolations: () => errors.filter((e) => /Content Security Policy/i.test(e)),
+  };
+}
+
+/** Saves a full-page PNG under tests/e2e/output/ and returns its path. */
+export async function screenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(OUTPUT_DIR, { recursive: true });
+  const path = join(OUTPUT_DIR, name.endsWith('.png') ? name : `${name}.png`);
+  await page.screenshot({ path, fullPage: true });
+  return path;
+}
