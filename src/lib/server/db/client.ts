@@ -27,11 +27,13 @@ export async function openDb(url = DEFAULT_DATABASE_URL, authToken?: string): Pr
     const path = url.slice('file:'.length);
     if (path && path !== ':memory:') mkdirSync(dirname(path), { recursive: true });
   }
-  const client = createClient(authToken ? { url, authToken } : { url });
+  // `timeout` is the busy timeout of every connection in the client's pool (a PRAGMA would reach only one).
+  const client = createClient({ url, ...(authToken ? { authToken } : {}), timeout: 5000 });
   if (url.startsWith('file:')) {
+    // journal_mode is stored in the file; synchronous is per connection and FULL is libSQL's default,
+    // asserted here and checked by tests/integration/durability.test.ts.
     await client.execute('PRAGMA journal_mode = WAL');
     await client.execute('PRAGMA synchronous = FULL');
-    await client.execute('PRAGMA busy_timeout = 5000');
   }
   await client.execute('PRAGMA foreign_keys = ON');
   const db = drizzle(client, { schema, casing: 'snake_case' });
