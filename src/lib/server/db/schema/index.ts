@@ -1,3 +1,4 @@
 export * from './accounts';
 export * from './teams';
 export * from './ops';
+export * from './scenes';

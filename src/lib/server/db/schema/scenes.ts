@@ -1,0 +1,152 @@
+import { sqliteTable, text, integer, real, blob, index, uniqueIndex, primaryKey, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
+import { users } from './accounts';
+import { teams } from './teams';
+
+/**
+ * Scenes and what hangs off them. JSON columns are typed loosely here (`unknown`) on purpose:
+ * src/lib/server/scenes.server.ts validates every one with zod on the way in and on the way out.
+ */
+
+export const SHARE_ROLES = ['viewer', 'reviewer'] as const;
+export type ShareRole = (typeof SHARE_ROLES)[number];
+
+/** A team's named places; a scene copies the site it was made from (so editing a site never moves old scenes). */
+export const sites = sqliteTable(
+  'sites',
+  {
+    id: text().primaryKey(),
+    teamId: text()
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    name: text().notNull(),
+    lat: real().notNull(),
+    lon: real().notNull(),
+    height: real().notNull(),
+    timeZone: text().notNull(),
+    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [index('sites_team_idx').on(t.teamId)],
+);
+
+/** An instrument's pointing limits; scenes refer to it so a change shows in every scene that uses it. */
+export const envelopes = sqliteTable(
+  'envelopes',
+  {
+    id: text().primaryKey(),
+    teamId: text()
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    name: text().notNull(),
+    /** The envelope JSON of the API contract (name included). */
+    data: text({ mode: 'json' }).notNull().$type<unknown>(),
+    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [index('envelopes_team_idx').on(t.teamId)],
+);
+
+export const scenes = sqliteTable(
+  'scenes',
+  {
+    id: text().primaryKey(),
+    teamId: text()
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    title: text().notNull(),
+    description: text().notNull().default(''),
+    site: text({ mode: 'json' }).notNull().$type<unknown>(),
+    /** ISO 8601 UTC. */
+    time: text().notNull(),
+    layers: text({ mode: 'json' }).notNull().$type<unknown>(),
+    camera: text({ mode: 'json' }).notNull().$type<unknown>(),
+    /** A team envelope (resolved on read) … */
+    envelopeId: text().references(() => envelopes.id, { onDelete: 'set null' }),
+    /** … or an inline one; never both. */
+    envelope: text({ mode: 'json' }).$type<unknown>(),
+    targets: text({ mode: 'json' }).notNull().$type<unknown>(),
+    pins: text({ mode: 'json' }).notNull().$type<unknown>(),
+    steps: text({ mode: 'json' }).notNull().$type<unknown>(),
+    /** Optimistic concurrency: every accepted write bumps it by one. */
+    version: integer().notNull().default(1),
+    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
+    updatedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    /** PNG bytes of a small preview, if the client sent one. */
+    thumbnail: blob({ mode: 'buffer' }),
+  },
+  (t) => [index('scenes_team_updated_idx').on(t.teamId, t.updatedAt), index('scenes_envelope_idx').on(t.envelopeId)],
+);
+
+/** One full snapshot per version: history and restore. */
+export const sceneVersions = sqliteTable(
+  'scene_versions',
+  {
+    sceneId: text()
+      .notNull()
+      .references(() => scenes.id, { onDelete: 'cascade' }),
+    version: integer().notNull(),
+    snapshot: text({ mode: 'json' }).notNull().$type<unknown>(),
+    authorId: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [primaryKey({ name: 'scene_versions_pk', columns: [t.sceneId, t.version] })],
+);
+
+export const shareLinks = sqliteTable(
+  'share_links',
+  {
+    id: text().primaryKey(),
+    sceneId: text()
+      .notNull()
+      .references(() => scenes.id, { onDelete: 'cascade' }),
+    role: text({ enum: SHARE_ROLES }).notNull(),
+    /** SHA-256 (hex) of the token; the token itself is shown once and never stored. */
+    tokenHash: text().notNull(),
+    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    expiresAt: integer({ mode: 'timestamp_ms' }),
+    revokedAt: integer({ mode: 'timestamp_ms' }),
+    lastUsedAt: integer({ mode: 'timestamp_ms' }),
+  },
+  (t) => [uniqueIndex('share_links_token_hash_uq').on(t.tokenHash), index('share_links_scene_idx').on(t.sceneId)],
+);
+
+export const comments = sqliteTable(
+  'comments',
+  {
+    id: text().primaryKey(),
+    sceneId: text()
+      .notNull()
+      .references(() => scenes.id, { onDelete: 'cascade' }),
+    parentId: text().references((): AnySQLiteColumn => comments.id, { onDelete: 'cascade' }),
+    authorUserId: text().references(() => users.id, { onDelete: 'set null' }),
+    /** Name typed by a guest on a reviewer link (authorUserId is then null). */
+    authorName: text(),
+    linkId: text().references(() => shareLinks.id, { onDelete: 'set null' }),
+    /** Markdown, stored and returned as text. */
+    body: text().notNull(),
+    /** `{ra, dec}` or `{azimuth, altitude}`, degrees. */
+    anchor: text({ mode: 'json' }).$type<unknown>(),
+    stepId: text(),
+    resolvedAt: integer({ mode: 'timestamp_ms' }),
+    resolvedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  },
+  (t) => [index('comments_scene_created_idx').on(t.sceneId, t.createdAt), index('comments_parent_idx').on(t.parentId)],
+);
+
+/** The live presenter's position: in the database so every app instance streams the same state. */
+export const presenterState = sqliteTable('presenter_state', {
+  sceneId: text()
+    .primaryKey()
+    .references(() => scenes.id, { onDelete: 'cascade' }),
+  stepIndex: integer().notNull(),
+  /** ISO 8601 UTC, or null to use the step's own time. */
+  time: text(),
+  updatedBy: text().references(() => users.id, { onDelete: 'set null' }),
+  updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+});

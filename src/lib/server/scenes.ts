@@ -1,0 +1,309 @@
+/**
+ * Pure request/response shapes for scenes, sites, envelopes, links, comments and the presenter.
+ * Built from the scene document in src/lib/scenes/scene.ts; no I/O here (scenes.server.ts does that).
+ */
+import { z, type AnyZodObject, type ZodTypeAny } from 'zod';
+import {
+  cameraSchema,
+  isoUtc,
+  layersSchema,
+  pinSchema,
+  siteSchema,
+  stepSchema,
+  targetSchema,
+  DEFAULT_LAYERS,
+  type Camera,
+  type Layers,
+  type Pin,
+  type Site,
+  type Step,
+  type Target,
+} from '../scenes/scene';
+import { envelopeSchema, teamEnvelopeSchema, type EnvelopeJson, type TeamEnvelopeJson } from './envelope-schema';
+
+export { envelopeSchema, teamEnvelopeSchema, type EnvelopeJson, type TeamEnvelopeJson };
+
+/**
+ * Refuses keys the schema does not know, naming the first one as the field (zod's own `.strict()`
+ * reports unknown keys without a path, so the client could not tell which field was wrong).
+ */
+export function knownKeysOnly<T extends ZodTypeAny>(shapeOf: AnyZodObject, schema: T) {
+  const known = new Set(Object.keys(shapeOf.shape));
+  return z
+    .unknown()
+    .superRefine((v, ctx) => {
+      if (v === null || typeof v !== 'object' || Array.isArray(v)) {
+        ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'The body must be a JSON object.' });
+        return;
+      }
+      for (const k of Object.keys(v)) {
+        if (!known.has(k)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: [k], message: 'is not a known field' });
+      }
+    })
+    .pipe(schema);
+}
+
+/** Ids inside a list (targets, pins, steps) must be unique: steps, comments and pins point at them. */
+function uniqueIds<T extends { id: string }>(item: z.ZodType<T, z.ZodTypeDef, unknown>, max: number) {
+  return z
+    .array(item)
+    .max(max)
+    .superRefine((list, ctx) => {
+      const seen = new Set<string>();
+      list.forEach((x, i) => {
+        if (seen.has(x.id)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: [i, 'id'], message: `duplicate id "${x.id}"` });
+        seen.add(x.id);
+      });
+    });
+}
+
+export const MAX_TARGETS = 5000;
+export const MAX_PINS = 500;
+export const MAX_STEPS = 200;
+
+export const targetsSchema = uniqueIds(targetSchema as z.ZodType<Target, z.ZodTypeDef, unknown>, MAX_TARGETS);
+export const pinsSchema = uniqueIds(pinSchema as z.ZodType<Pin, z.ZodTypeDef, unknown>, MAX_PINS);
+export const stepsSchema = uniqueIds(stepSchema as z.ZodType<Step, z.ZodTypeDef, unknown>, MAX_STEPS);
+
+export const titleSchema = z.string().trim().min(1, 'must not be empty').max(200);
+export const descriptionSchema = z.string().max(20_000);
+
+/** The stored scene document; the database's JSON columns are checked against it on write and on read. */
+export const sceneDocSchema = z.object({
+  title: titleSchema,
+  description: descriptionSchema,
+  site: siteSchema,
+  time: isoUtc,
+  layers: layersSchema,
+  camera: cameraSchema,
+  envelopeId: z.string().nullable(),
+  envelope: envelopeSchema.nullable(),
+  targets: targetsSchema,
+  pins: pinsSchema,
+  steps: stepsSchema,
+});
+export type SceneDoc = z.infer<typeof sceneDocSchema>;
+
+const idRef = z.string().trim().min(1).max(64);
+
+const sceneCreateShape = z.object({
+  teamId: idRef,
+  title: titleSchema.optional(),
+  description: descriptionSchema.optional(),
+  site: siteSchema.optional(),
+  /** Take the site from one of the team's saved sites. */
+  siteId: idRef.optional(),
+  time: isoUtc.optional(),
+  layers: layersSchema.optional(),
+  camera: cameraSchema.optional(),
+  envelopeId: idRef.nullable().optional(),
+  envelope: envelopeSchema.nullable().optional(),
+  targets: targetsSchema.optional(),
+  pins: pinsSchema.optional(),
+  steps: stepsSchema.optional(),
+  /** Duplicate this scene; fields given here override the copy. */
+  fromSceneId: idRef.optional(),
+});
+
+export const sceneCreateSchema = knownKeysOnly(
+  sceneCreateShape,
+  sceneCreateShape.superRefine((b, ctx) => {
+    const need = (field: string) => ctx.addIssue({ code: z.ZodIssueCode.custom, path: [field], message: 'is required' });
+    if (b.fromSceneId) {
+      if (b.site && b.siteId) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['siteId'], message: 'give site or siteId, not both' });
+    } else {
+      if (b.title === undefined) need('title');
+      if (b.site === undefined && b.siteId === undefined) need('site');
+      if (b.site && b.siteId) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['siteId'], message: 'give site or siteId, not both' });
+      if (b.time === undefined) need('time');
+    }
+    if (b.envelopeId && b.envelope) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['envelope'], message: 'give envelopeId or envelope, not both' });
+    }
+  }),
+);
+export type SceneCreateBody = z.infer<typeof sceneCreateShape>;
+
+/** PNG thumbnails arrive as a data URL; ≤ 512 KiB decoded. */
+export const MAX_THUMBNAIL_BYTES = 512 * 1024;
+const PNG_MAGIC = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
+export const thumbnailSchema = z
+  .string()
+  .max(Math.ceil((MAX_THUMBNAIL_BYTES * 4) / 3) + 64)
+  .transform((s, ctx) => {
+    const m = /^data:image\/png;base64,([A-Za-z0-9+/]+={0,2})$/.exec(s);
+    const bytes = m ? Buffer.from(m[1], 'base64') : null;
+    if (!bytes || bytes.length > MAX_THUMBNAIL_BYTES || !PNG_MAGIC.every((b, i) => bytes[i] === b)) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'must be a PNG data URL (data:image/png;base64,…) of at most 512 KiB' });
+      return z.NEVER;
+    }
+    return bytes;
+  });
+
+const readOnlyEcho = z.unknown().optional();
+
+const scenePatchShape = z.object({
+  version: z.number({ required_error: 'is required' }).int().min(1),
+  title: titleSchema.optional(),
+  description: descriptionSchema.optional(),
+  site: siteSchema.optional(),
+  time: isoUtc.optional(),
+  layers: layersSchema.optional(),
+  camera: cameraSchema.optional(),
+  envelopeId: idRef.nullable().optional(),
+  envelope: envelopeSchema.nullable().optional(),
+  targets: targetsSchema.optional(),
+  pins: pinsSchema.optional(),
+  steps: stepsSchema.optional(),
+  thumbnail: thumbnailSchema.nullable().optional(),
+  // A client may send back the scene it fetched; server-kept fields are ignored.
+  id: readOnlyEcho,
+  teamId: readOnlyEcho,
+  createdAt: readOnlyEcho,
+  createdBy: readOnlyEcho,
+  updatedAt: readOnlyEcho,
+  updatedBy: readOnlyEcho,
+  hasThumbnail: readOnlyEcho,
+});
+export const scenePatchSchema = knownKeysOnly(
+  scenePatchShape,
+  scenePatchShape.superRefine((b, ctx) => {
+    if (b.envelopeId && b.envelope) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['envelope'], message: 'give envelopeId or envelope, not both' });
+    }
+  }),
+);
+export type ScenePatchBody = z.infer<typeof scenePatchShape>;
+
+const restoreShape = z.object({ version: z.number().int().min(1).optional() });
+export const restoreSchema = knownKeysOnly(restoreShape, restoreShape);
+
+/** The scene as the API returns it. */
+export interface SceneOut {
+  id: string;
+  teamId: string;
+  title: string;
+  description: string;
+  site: Site;
+  time: string;
+  layers: Layers;
+  camera: Camera;
+  envelopeId: string | null;
+  /** Resolved: the team envelope's current JSON, or the inline one, or null. */
+  envelope: EnvelopeJson | null;
+  targets: Target[];
+  pins: Pin[];
+  steps: Step[];
+  version: number;
+  createdBy: string | null;
+  updatedBy: string | null;
+  createdAt: string;
+  updatedAt: string;
+  hasThumbnail: boolean;
+}
+
+export const withDefaultLayers = (layers: Layers | undefined): Layers => ({ ...DEFAULT_LAYERS, ...(layers ?? {}) });
+export const defaultCamera = (): Camera => cameraSchema.parse({});
+
+/** Applies a PATCH body to a stored document (pure). Choosing a team envelope drops the inline one and back. */
+export function applyPatch(doc: SceneDoc, b: ScenePatchBody): SceneDoc {
+  const next: SceneDoc = { ...doc };
+  if (b.title !== undefined) next.title = b.title;
+  if (b.description !== undefined) next.description = b.description;
+  if (b.site !== undefined) next.site = b.site;
+  if (b.time !== undefined) next.time = b.time;
+  if (b.layers !== undefined) next.layers = b.layers;
+  if (b.camera !== undefined) next.camera = b.camera;
+  if (b.targets !== undefined) next.targets = b.targets;
+  if (b.pins !== undefined) next.pins = b.pins;
+  if (b.steps !== undefined) next.steps = b.steps;
+  if (b.envelopeId !== undefined) {
+    next.envelopeId = b.envelopeId;
+    if (b.envelopeId !== null) next.envelope = null;
+  }
+  if (b.envelope !== undefined) {
+    next.envelope = b.envelope;
+    if (b.envelope !== null) next.envelopeId = null;
+  }
+  return next;
+}
+
+// ---- sites ----
+const siteCreateShape = siteSchema;
+export const siteCreateSchema = knownKeysOnly(siteCreateShape, siteCreateShape);
+const sitePatchShape = z.object({
+  name: siteSchema.shape.name.optional(),
+  lat: siteSchema.shape.lat.optional(),
+  lon: siteSchema.shape.lon.optional(),
+  height: siteSchema.shape.height.removeDefault().optional(),
+  timeZone: siteSchema.shape.timeZone.removeDefault().optional(),
+});
+export const sitePatchSchema = knownKeysOnly(sitePatchShape, sitePatchShape);
+
+// ---- envelopes ----
+/** PATCH merges into the stored envelope; `null` clears an optional limit. */
+const envelopeFieldNames = ['minAltitude', 'maxAltitude', 'azimuthRanges', 'keyholeRadius', 'sunAvoidance', 'moonAvoidance', 'horizonMask', 'hourAngleLimits', 'declinationLimits'] as const;
+const envelopePatchShape = z.object({
+  name: z.string().optional(),
+  ...(Object.fromEntries(envelopeFieldNames.map((k) => [k, z.unknown().optional()])) as Record<(typeof envelopeFieldNames)[number], z.ZodOptional<z.ZodUnknown>>),
+  // echoes of the GET answer, ignored
+  id: readOnlyEcho,
+  teamId: readOnlyEcho,
+  createdAt: readOnlyEcho,
+  updatedAt: readOnlyEcho,
+  usedBy: readOnlyEcho,
+});
+export const envelopePatchSchema = knownKeysOnly(envelopePatchShape, envelopePatchShape);
+const envelopeCreateShape = z.object({
+  name: z.unknown(),
+  ...(Object.fromEntries(envelopeFieldNames.map((k) => [k, z.unknown().optional()])) as Record<(typeof envelopeFieldNames)[number], z.ZodOptional<z.ZodUnknown>>),
+});
+export const envelopeCreateSchema = knownKeysOnly(envelopeCreateShape, teamEnvelopeSchema);
+
+export function mergeEnvelope(current: TeamEnvelopeJson, patch: Record<string, unknown>): Record<string, unknown> {
+  const next: Record<string, unknown> = { ...current };
+  for (const k of ['name', ...envelopeFieldNames] as const) {
+    if (!(k in patch)) continue;
+    const v = patch[k];
+    if (v === null) delete next[k];
+    else if (v !== undefined) next[k] = v;
+  }
+  return next;
+}
+
+// ---- comments ----
+export const anchorSchema = z.union([
+  z.object({ ra: z.number().min(0).lt(360), dec: z.number().min(-90).max(90) }).strict(),
+  z.object({ azimuth: z.number().min(0).max(360), altitude: z.number().min(-90).max(90) }).strict(),
+]);
+export type Anchor = z.infer<typeof anchorSchema>;
+
+export const commentBodyText = z.string().trim().min(1, 'must not be empty').max(10_000);
+const commentCreateShape = z.object({
+  body: commentBodyText,
+  anchor: anchorSchema.nullable().optional(),
+  stepId: z.string().min(1).max(40).nullable().optional(),
+  parentId: idRef.nullable().optional(),
+});
+export const commentCreateSchema = knownKeysOnly(commentCreateShape, commentCreateShape);
+export type CommentCreateBody = z.infer<typeof commentCreateShape>;
+
+const guestCommentShape = commentCreateShape.extend({ authorName: z.string().trim().min(1, 'must not be empty').max(80) });
+export const guestCommentSchema = knownKeysOnly(guestCommentShape, guestCommentShape);
+
+const commentPatchShape = z.object({ resolved: z.boolean({ required_error: 'is required' }) });
+export const commentPatchSchema = knownKeysOnly(commentPatchShape, commentPatchShape);
+
+// ---- links ----
+const linkCreateShape = z.object({
+  role: z.enum(['viewer', 'reviewer'], { required_error: 'is required' }),
+  expiresAt: isoUtc.nullable().optional(),
+});
+export const linkCreateSchema = knownKeysOnly(linkCreateShape, linkCreateShape);
+
+// ---- presenter ----
+const presenterShape = z.object({
+  stepIndex: z.number({ required_error: 'is required' }).int().min(0).max(MAX_STEPS - 1),
+  time: isoUtc.nullable().optional(),
+});
+export const presenterSchema = knownKeysOnly(presenterShape, presenterShape);

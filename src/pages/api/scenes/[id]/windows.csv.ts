@@ -1,0 +1,11 @@
+import { db } from '../../../../lib/server/db';
+import { route } from '../../../../lib/server/http';
+import { requireUser } from '../../../../lib/server/policy';
+import { sceneForMember } from '../../../../lib/exports/exports.server';
+import { windowsResponse } from '../../../../lib/exports/responses';
+
+/** Visibility windows of each target inside the scene's envelope over `?from=&to=` (default: 24 h from the scene time). Viewer+. */
+export const GET = route(async ({ locals, params, url }) => {
+  const user = requireUser(locals);
+  return windowsResponse(await sceneForMember(db, user, params.id!), url);
+});

@@ -1,0 +1,22 @@
+import { z } from 'zod';
+import { db } from '../../../lib/server/db';
+import { json, parseJson, parseQuery, route } from '../../../lib/server/http';
+import { requireUser } from '../../../lib/server/policy';
+import { sceneCreateSchema } from '../../../lib/server/scenes';
+import { createScene, listScenes } from '../../../lib/server/scenes.server';
+
+const listQuery = z.object({ teamId: z.string().min(1).max(64).optional() });
+
+/** Scenes of the caller's teams (optionally one team), newest change first. */
+export const GET = route(async ({ locals, url }) => {
+  const user = requireUser(locals);
+  const q = parseQuery(listQuery, url);
+  return json({ scenes: await listScenes(db, user.id, q.teamId) });
+});
+
+/** Create (or duplicate with `fromSceneId`); editor+ in `teamId`. */
+export const POST = route(async ({ locals, request }) => {
+  const user = requireUser(locals);
+  const body = await parseJson(sceneCreateSchema, request);
+  return json({ scene: await createScene(db, user, body) }, 201);
+});

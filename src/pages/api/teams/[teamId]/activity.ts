@@ -1,0 +1,47 @@
+import { z } from 'zod';
+import { and, desc, eq, lt } from 'drizzle-orm';
+import { db } from '../../../../lib/server/db';
+import { auditLog, users } from '../../../../lib/server/db/schema';
+import { json, parseQuery, route } from '../../../../lib/server/http';
+import { authorize, requireUser } from '../../../../lib/server/policy';
+import { isoUtc } from '../../../../lib/scenes/scene';
+
+const query = z.object({
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  /** Page back: entries strictly before this instant. */
+  before: isoUtc.optional(),
+});
+
+/** The team's activity, newest first, from the audit log. */
+export const GET = route(async ({ locals, params, url }) => {
+  const user = requireUser(locals);
+  await authorize(db, user, params.teamId!, 'team.read', 'Team');
+  const q = parseQuery(query, url);
+  const rows = await db
+    .select({
+      id: auditLog.id,
+      at: auditLog.at,
+      action: auditLog.action,
+      subjectType: auditLog.subjectType,
+      subjectId: auditLog.subjectId,
+      detail: auditLog.detail,
+      userId: auditLog.userId,
+      userName: users.name,
+    })
+    .from(auditLog)
+    .leftJoin(users, eq(users.id, auditLog.userId))
+    .where(and(eq(auditLog.teamId, params.teamId!), q.before ? lt(auditLog.at, new Date(q.before)) : undefined))
+    .orderBy(desc(auditLog.at), desc(auditLog.id))
+    .limit(q.limit);
+  return json({
+    activity: rows.map((r) => ({
+      id: r.id,
+      at: r.at.toISOString(),
+      action: r.action,
+      subjectType: r.subjectType,
+      subjectId: r.subjectId,
+      user: r.userId ? { id: r.userId, name: r.userName ?? '' } : null,
+      detail: r.detail ?? {},
+    })),
+  });
+});
