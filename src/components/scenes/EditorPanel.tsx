@@ -1,0 +1,383 @@
+/** The scene's fields: editors change them (autosaved), viewers and reviewers read them. */
+import { useEffect, useMemo, useState, useId } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { cameraSchema, LAYER_KEYS, siteSchema, type Camera, type LayerKey, type Layers, type Site } from '../../lib/scenes/scene';
+import { envelopeSchema } from '../../lib/server/envelope-schema';
+import { apiGet } from '../../lib/client/api';
+import type { EnvelopeOut, SceneOut, SiteOut } from '../../lib/client/types';
+import { formatInZone, inputUtcToIso, isoToInputUtc } from '../../lib/client/scene-view';
+import { Button } from '../ui/Button';
+import { INPUT, LABEL, NumberField, Section } from './bits';
+import { TargetsEditor } from './TargetsEditor';
+import { PinsEditor, type PinDraft } from './PinsEditor';
+
+type Edit = (patch: Partial<SceneOut>) => void;
+
+const LAYER_LABELS: Record<LayerKey, string> = {
+  horizon: 'Horizon', equator: 'Celestial equator', ecliptic: 'Ecliptic', meridian: 'Meridian', primeVertical: 'Prime vertical',
+  galactic: 'Galactic equator', altAzGrid: 'Altitude–azimuth grid', raDecGrid: 'RA/Dec grid', eclipticGrid: 'Ecliptic grid',
+  referencePoints: 'Cardinal points, zenith, poles', stars: 'Stars', starLabels: 'Star names', bodies: 'Sun, Moon, planets',
+  bodyLabels: 'Body names', envelope: 'Pointing envelope', targets: 'Targets', pins: 'Pins', comments: 'Comment markers', ground: 'Ground',
+};
+
+let zonesCache: string[] | null = null;
+export function timeZones(): string[] {
+  if (zonesCache) return zonesCache;
+  try {
+    zonesCache = (Intl as unknown as { supportedValuesOf: (k: string) => string[] }).supportedValuesOf('timeZone');
+  } catch {
+    zonesCache = [];
+  }
+  if (!zonesCache.includes('UTC')) zonesCache = ['UTC', ...zonesCache];
+  return zonesCache;
+}
+
+export function SiteForm({ value, onApply, submitLabel = 'Apply site' }: { value: Site; onApply: (s: Site) => void; submitLabel?: string }) {
+  const id = useId();
+  const [f, setF] = useState({ name: value.name, lat: String(value.lat), lon: String(value.lon), height: String(value.height ?? 0), timeZone: value.timeZone ?? 'UTC' });
+  const [err, setErr] = useState<{ field: string; message: string } | null>(null);
+  const zones = useMemo(timeZones, []);
+  const apply = () => {
+    const r = siteSchema.safeParse({ name: f.name, lat: Number(f.lat), lon: Number(f.lon), height: Number(f.height || 0), timeZone: f.timeZone });
+    const bad = (['lat', 'lon', 'height'] as const).find((k) => f[k].trim() !== '' && !Number.isFinite(Number(f[k])));
+    if (bad) return setErr({ field: bad, message: `${bad}: must be a number` });
+    if (!r.success) {
+      const i = r.error.issues[0]!;
+      return setErr({ field: String(i.path[0]), message: `${String(i.path[0])}: ${i.message}` });
+    }
+    setErr(null);
+    onApply(r.data);
+  };
+  const field = (k: keyof typeof f, label: string, hint?: string) => (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={`${id}-${k}`} className={LABEL}>
+        {label}
+      </label>
+      <input id={`${id}-${k}`} className={INPUT} value={f[k]} inputMode={k === 'name' ? undefined : 'decimal'} aria-invalid={err?.field === k || undefined} placeholder={hint} onChange={(e) => setF({ ...f, [k]: e.target.value })} />
+    </div>
+  );
+  return (
+    <div className="flex flex-col gap-2">
+      {field('name', 'Site name')}
+      <div className="grid grid-cols-3 gap-2">
+        {field('lat', 'Latitude (°, north +)', '40.01')}
+        {field('lon', 'Longitude (°, east +)', '-105.27')}
+        {field('height', 'Height (m)', '1650')}
+      </div>
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-tz`} className={LABEL}>
+          Time zone
+        </label>
+        <select id={`${id}-tz`} className={INPUT} value={f.timeZone} aria-invalid={err?.field === 'timeZone' || undefined} onChange={(e) => setF({ ...f, timeZone: e.target.value })}>
+          {!zones.includes(f.timeZone) && <option value={f.timeZone}>{f.timeZone}</option>}
+          {zones.map((z) => (
+            <option key={z} value={z}>
+              {z}
+            </option>
+          ))}
+        </select>
+      </div>
+      {err && (
+        <p role="alert" className="text-xs text-danger-300">
+          {err.message}
+        </p>
+      )}
+      <Button variant="secondary" onClick={apply}>
+        {submitLabel}
+      </Button>
+    </div>
+  );
+}
+
+function SiteSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; readOnly: boolean }) {
+  const id = useId();
+  const sites = useQuery({ queryKey: ['sites', scene.teamId], queryFn: () => apiGet<{ sites: SiteOut[] }>(`/api/teams/${scene.teamId}/sites`), enabled: !readOnly });
+  const s = scene.site;
+  return (
+    <div className="flex flex-col gap-3">
+      <p className="text-sm">
+        <span className="font-medium">{s.name}</span>
+        <span className="text-ink-300">
+          {' '}
+          · {s.lat.toFixed(4)}°, {s.lon.toFixed(4)}° · {s.height ?? 0} m · {s.timeZone}
+        </span>
+      </p>
+      {!readOnly && (
+        <>
+          {(sites.data?.sites.length ?? 0) > 0 && (
+            <div className="flex flex-col gap-1">
+              <label htmlFor={`${id}-team`} className={LABEL}>
+                Use a team site
+              </label>
+              <select
+                id={`${id}-team`}
+                className={INPUT}
+                value=""
+                onChange={(e) => {
+                  const t = sites.data!.sites.find((x) => x.id === e.target.value);
+                  if (t) edit({ site: { name: t.name, lat: t.lat, lon: t.lon, height: t.height, timeZone: t.timeZone } });
+                }}
+              >
+                <option value="">Choose…</option>
+                {sites.data!.sites.map((t) => (
+                  <option key={t.id} value={t.id}>
+                    {t.name}
+                  </option>
+                ))}
+              </select>
+            </div>
+          )}
+          <SiteForm key={JSON.stringify(s)} value={s} onApply={(site) => edit({ site })} />
+        </>
+      )}
+    </div>
+  );
+}
+
+function TimeSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; readOnly: boolean }) {
+  const id = useId();
+  const [v, setV] = useState(isoToInputUtc(scene.time));
+  const [err, setErr] = useState<string | null>(null);
+  const [last, setLast] = useState(scene.time);
+  if (last !== scene.time) {
+    setLast(scene.time);
+    setV(isoToInputUtc(scene.time));
+  }
+  const commit = (value: string) => {
+    const iso = inputUtcToIso(value);
+    if (!iso) return setErr('time: enter a date and time');
+    setErr(null);
+    if (iso !== scene.time) edit({ time: iso });
+  };
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={`${id}-t`} className={LABEL}>
+        Instant (UTC)
+      </label>
+      <div className="flex gap-2">
+        <input id={`${id}-t`} type="datetime-local" className={INPUT} value={v} readOnly={readOnly} aria-invalid={err ? true : undefined} onChange={(e) => setV(e.target.value)} onBlur={(e) => !readOnly && commit(e.target.value)} onKeyDown={(e) => e.key === 'Enter' && commit(v)} />
+        {!readOnly && (
+          <Button variant="secondary" onClick={() => commit(new Date().toISOString().slice(0, 16))}>
+            Now
+          </Button>
+        )}
+      </div>
+      <p className="text-xs text-ink-300">At the site: {formatInZone(scene.time, scene.site.timeZone ?? 'UTC')}</p>
+      {err && <p className="text-xs text-danger-300">{err}</p>}
+    </div>
+  );
+}
+
+function LayersSection({ layers, edit, readOnly }: { layers: Layers; edit: (l: Layers) => void; readOnly: boolean }) {
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="grid grid-cols-1 gap-1 sm:grid-cols-2">
+        {LAYER_KEYS.map((k) => (
+          <label key={k} className="flex items-center gap-2 text-sm">
+            <input type="checkbox" className="h-4 w-4 accent-brass-400" checked={layers[k] ?? false} disabled={readOnly} onChange={(e) => edit({ ...layers, [k]: e.target.checked })} />
+            {LAYER_LABELS[k]}
+          </label>
+        ))}
+      </div>
+      <NumberField label="Faintest star shown" suffix="V mag" value={layers.limitingMagnitude} min={-2} max={8} onCommit={(n) => !readOnly && edit({ ...layers, limitingMagnitude: n ?? 5.5 })} />
+    </div>
+  );
+}
+
+function CameraSection({ camera, edit, readOnly }: { camera: Camera; edit: (c: Camera) => void; readOnly: boolean }) {
+  const id = useId();
+  const set = (p: Partial<Camera>) => {
+    const r = cameraSchema.safeParse({ ...camera, ...p });
+    if (r.success) edit(r.data);
+  };
+  return (
+    <div className="grid grid-cols-2 gap-2">
+      <div className="col-span-2 flex flex-col gap-1">
+        <label htmlFor={`${id}-mode`} className={LABEL}>
+          View
+        </label>
+        <select id={`${id}-mode`} className={INPUT} value={camera.mode} disabled={readOnly} onChange={(e) => set({ mode: e.target.value as Camera['mode'] })}>
+          <option value="observer">Observer view</option>
+          <option value="sphere">Sphere view</option>
+        </select>
+      </div>
+      <NumberField label="Azimuth" suffix="°" value={camera.azDeg} min={0} max={360} onCommit={(n) => !readOnly && n !== undefined && set({ azDeg: n })} />
+      <NumberField label="Altitude" suffix="°" value={camera.altDeg} min={-90} max={90} onCommit={(n) => !readOnly && n !== undefined && set({ altDeg: n })} />
+      <NumberField label="Field of view" suffix="°" value={camera.fovDeg} min={5} max={150} onCommit={(n) => !readOnly && n !== undefined && set({ fovDeg: n })} />
+    </div>
+  );
+}
+
+const ENV_NUMBERS = [
+  ['minAltitude', 'Lowest altitude', -90, 90],
+  ['maxAltitude', 'Highest altitude', -90, 90],
+  ['keyholeRadius', 'Zenith keyhole radius', 0, 90],
+  ['sunAvoidance', 'Sun avoidance', 0, 180],
+  ['moonAvoidance', 'Moon avoidance', 0, 180],
+] as const;
+
+function EnvelopeSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; readOnly: boolean }) {
+  const id = useId();
+  const list = useQuery({ queryKey: ['envelopes', scene.teamId], queryFn: () => apiGet<{ envelopes: EnvelopeOut[] }>(`/api/teams/${scene.teamId}/envelopes`) });
+  const [err, setErr] = useState<string | null>(null);
+  const mode = scene.envelopeId ? 'team' : scene.envelope ? 'inline' : 'none';
+  const env = (scene.envelope ?? { name: 'Inline envelope' }) as Record<string, unknown>;
+  const setInline = (patch: Record<string, unknown>) => {
+    const next = { ...env, ...patch };
+    for (const k of Object.keys(next)) if (next[k] === undefined) delete next[k];
+    const r = envelopeSchema.safeParse(next);
+    if (!r.success) {
+      const i = r.error.issues[0]!;
+      return setErr(`${i.path.join('.') || 'envelope'}: ${i.message}`);
+    }
+    setErr(null);
+    edit({ envelopeId: null, envelope: r.data });
+  };
+  const envs = list.data?.envelopes ?? [];
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-src`} className={LABEL}>
+          Pointing envelope
+        </label>
+        <select
+          id={`${id}-src`}
+          className={INPUT}
+          disabled={readOnly}
+          value={scene.envelopeId ? `team:${scene.envelopeId}` : mode}
+          onChange={(e) => {
+            const v = e.target.value;
+            if (v === 'none') edit({ envelopeId: null, envelope: null });
+            else if (v === 'inline') edit({ envelopeId: null, envelope: envelopeSchema.parse({ ...env, name: String(env.name ?? 'Inline envelope') }) });
+            else {
+              const t = envs.find((x) => `team:${x.id}` === v);
+              if (t) edit({ envelopeId: t.id, envelope: (t.data ?? { name: t.name }) as SceneOut['envelope'] });
+            }
+          }}
+        >
+          <option value="none">None</option>
+          {envs.map((e) => (
+            <option key={e.id} value={`team:${e.id}`}>
+              Team: {e.name}
+            </option>
+          ))}
+          {scene.envelopeId && !envs.some((e) => e.id === scene.envelopeId) && <option value={`team:${scene.envelopeId}`}>Team: {scene.envelope?.name ?? scene.envelopeId}</option>}
+          <option value="inline">Inline (this scene only)</option>
+        </select>
+      </div>
+      {mode === 'team' && <p className="text-xs text-ink-300">Shared with the team: changes to it show in every scene that uses it.</p>}
+      {mode !== 'none' && (
+        <div className="grid grid-cols-2 gap-2">
+          {mode === 'inline' && !readOnly ? (
+            <>
+              <div className="col-span-2 flex flex-col gap-1">
+                <label htmlFor={`${id}-name`} className={LABEL}>
+                  Envelope name
+                </label>
+                <input id={`${id}-name`} className={INPUT} defaultValue={String(env.name ?? '')} onBlur={(e) => e.target.value !== env.name && setInline({ name: e.target.value })} />
+              </div>
+              {ENV_NUMBERS.map(([k, label, min, max]) => (
+                <NumberField key={k} label={label} suffix="°" value={env[k] as number | undefined} min={min} max={max} onCommit={(n) => setInline({ [k]: n })} />
+              ))}
+            </>
+          ) : (
+            <dl className="col-span-2 grid grid-cols-2 gap-x-3 text-sm">
+              {ENV_NUMBERS.filter(([k]) => env[k] !== undefined).map(([k, label]) => (
+                <div key={k} className="contents">
+                  <dt className="text-ink-300">{label}</dt>
+                  <dd>{String(env[k])}°</dd>
+                </div>
+              ))}
+              {Array.isArray(env.horizonMask) && (
+                <>
+                  <dt className="text-ink-300">Horizon mask</dt>
+                  <dd>{(env.horizonMask as unknown[]).length} points</dd>
+                </>
+              )}
+            </dl>
+          )}
+        </div>
+      )}
+      {err && (
+        <p role="alert" className="text-xs text-danger-300">
+          {err}
+        </p>
+      )}
+    </div>
+  );
+}
+
+function TitleInput({ id, value, readOnly, onCommit }: { id: string; value: string; readOnly: boolean; onCommit: (v: string) => void }) {
+  const [text, setText] = useState(value);
+  const [err, setErr] = useState(false);
+  useEffect(() => {
+    setText((t) => (t.trim() === value ? t : value));
+  }, [value]);
+  return (
+    <>
+      <input
+        id={id}
+        className={INPUT}
+        value={text}
+        readOnly={readOnly}
+        maxLength={200}
+        aria-invalid={err || undefined}
+        aria-describedby={err ? `${id}-err` : undefined}
+        onChange={(e) => {
+          setText(e.target.value);
+          const t = e.target.value.trim();
+          setErr(!t);
+          if (t && t !== value) onCommit(t);
+        }}
+      />
+      {err && (
+        <p id={`${id}-err`} className="text-xs text-danger-300">
+          Title: must not be empty (not saved)
+        </p>
+      )}
+    </>
+  );
+}
+
+export function EditorPanel(props: { scene: SceneOut; edit: Edit; readOnly: boolean; pinDraft: PinDraft | null; setPinDraft: (d: PinDraft | null) => void }) {
+  const { scene, edit, readOnly } = props;
+  const id = useId();
+  return (
+    <div className="flex flex-col gap-3">
+      {readOnly && <p className="rounded-md border border-ink-700 px-3 py-2 text-sm text-ink-300">Read-only: your role can look and comment, not edit.</p>}
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-title`} className={LABEL}>
+          Title
+        </label>
+        <TitleInput id={`${id}-title`} value={scene.title} readOnly={readOnly} onCommit={(title) => edit({ title })} />
+      </div>
+      <div className="flex flex-col gap-1">
+        <label htmlFor={`${id}-desc`} className={LABEL}>
+          Description
+        </label>
+        <textarea id={`${id}-desc`} className={`${INPUT} min-h-20`} value={scene.description} readOnly={readOnly} onChange={(e) => edit({ description: e.target.value })} />
+      </div>
+      <Section title="Site" defaultOpen={false}>
+        <SiteSection scene={scene} edit={edit} readOnly={readOnly} />
+      </Section>
+      <Section title="Time">
+        <TimeSection scene={scene} edit={edit} readOnly={readOnly} />
+      </Section>
+      <Section title={`Targets (${scene.targets.length})`}>
+        <TargetsEditor targets={scene.targets} onChange={(targets) => edit({ targets })} readOnly={readOnly} />
+      </Section>
+      <Section title={`Pins (${scene.pins.length})`} defaultOpen={!!props.pinDraft}>
+        <PinsEditor pins={scene.pins} onChange={(pins) => edit({ pins })} readOnly={readOnly} draft={props.pinDraft} setDraft={props.setPinDraft} />
+      </Section>
+      <Section title="Layers">
+        <LayersSection layers={scene.layers} edit={(layers) => edit({ layers })} readOnly={readOnly} />
+      </Section>
+      <Section title="Camera">
+        <CameraSection camera={scene.camera} edit={(camera) => edit({ camera })} readOnly={readOnly} />
+      </Section>
+      <Section title="Envelope">
+        <EnvelopeSection scene={scene} edit={edit} readOnly={readOnly} />
+      </Section>
+    </div>
+  );
+}

@@ -1,0 +1,234 @@
+/**
+ * /scenes/[id]: the sky beside the panels (scene, steps, review, share, history). Editors' changes are
+ * autosaved with the version they were based on; a 409 opens the conflict choice.
+ */
+import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { QueryRoot } from '../ui/QueryRoot';
+import { Button } from '../ui/Button';
+import { Alert } from '../ui/Alert';
+import { ApiError, apiGet, apiPatch, errorText, request, readError } from '../../lib/client/api';
+import { Autosave, type SaveFn } from '../../lib/client/autosave';
+import type { Anchor, CommentOut, Role, SceneOut } from '../../lib/client/types';
+import { anchorFromPick, commentMarkers, pinPointFromPick, sceneAtStep, toSceneLike, type SceneLike } from '../../lib/client/scene-view';
+import { sameValue } from '../../lib/client/scene-diff';
+import { EditorPanel } from './EditorPanel';
+import type { PinDraft } from './PinsEditor';
+import { ConflictDialog } from './ConflictDialog';
+import { VersionHistory } from './VersionHistory';
+import { SharePanel } from './SharePanel';
+import { SaveBadge, Tabs } from './bits';
+import { Sky, shrinkPng, type PickedPoint } from './Sky';
+import { StepsEditor } from '../briefing/StepsEditor';
+import { FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
+import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+
+type Tab = 'scene' | 'steps' | 'review' | 'share' | 'history';
+const RANK: Record<Role, number> = { viewer: 0, reviewer: 1, editor: 2, owner: 3 };
+
+export interface WorkspaceProps {
+  scene: SceneOut;
+  role: Role;
+  userId: string;
+}
+
+function Workspace({ scene: initial, role }: WorkspaceProps) {
+  const canEdit = RANK[role] >= RANK.editor;
+  const canComment = RANK[role] >= RANK.reviewer;
+  const saver = useMemo(() => {
+    const save: SaveFn = async (body) => {
+      try {
+        const r = await apiPatch<{ scene: SceneOut }>(`/api/scenes/${initial.id}`, body);
+        return { kind: 'ok', scene: r.scene };
+      } catch (e) {
+        if (e instanceof ApiError && e.status === 409 && (e.body as { scene?: SceneOut })?.scene) return { kind: 'conflict', scene: (e.body as { scene: SceneOut }).scene };
+        throw e;
+      }
+    };
+    return new Autosave(initial, save, 800);
+  }, [initial]);
+  useEffect(() => () => saver.dispose(), [saver]);
+  const st = useSyncExternalStore(saver.subscribe, saver.get, saver.get);
+  const scene = st.local;
+  const edit = useCallback((p: Partial<SceneOut>) => canEdit && saver.edit(p), [canEdit, saver]);
+
+  // Leaving with unsaved edits: flush and warn.
+  useEffect(() => {
+    const h = (e: BeforeUnloadEvent) => {
+      if (saver.get().dirty.length) {
+        void saver.flush();
+        e.preventDefault();
+      }
+    };
+    window.addEventListener('beforeunload', h);
+    return () => window.removeEventListener('beforeunload', h);
+  }, [saver]);
+
+  const [tab, setTab] = useState<Tab>(() => (typeof location !== 'undefined' && location.hash.startsWith('#comment-') ? 'review' : 'scene'));
+  const [pinDraft, setPinDraft] = useState<PinDraft | null>(null);
+  const [picking, setPicking] = useState(false);
+  const [anchor, setAnchor] = useState<Anchor | null>(null);
+  const [shownStep, setShownStep] = useState<string | null>(null);
+  const [presenting, setPresenting] = useState<number | null>(null);
+  const [following, setFollowing] = useState(false);
+  const [snap, setSnap] = useState<string | null>(null);
+  const [snapMsg, setSnapMsg] = useState<{ tone: 'success' | 'error'; text: string } | null>(null);
+  const [focusedComment, setFocusedComment] = useState<string | null>(null);
+
+  const members = useQuery({ queryKey: ['members', scene.teamId], queryFn: () => apiGet<{ members: { userId?: string; id?: string; name: string }[] }>(`/api/teams/${scene.teamId}/members`) });
+  const memberNames = useMemo(() => new Map((members.data?.members ?? []).map((m) => [m.userId ?? m.id ?? '', m.name])), [members.data]);
+  const access: ReviewAccess = { kind: 'member', sceneId: scene.id, canComment, canResolve: canComment };
+  const comments = useComments(access);
+  const markers = useMemo(() => commentMarkers(comments.data ?? []), [comments.data]);
+  const follow = useFollow(following ? `/api/scenes/${scene.id}/presenter/stream` : null);
+
+  const like = toSceneLike(scene);
+  const followedStep = following && follow.state ? scene.steps[follow.state.stepIndex] : undefined;
+  const viewScene: SceneLike = following && follow.state ? sceneAtStep(like, followedStep, follow.state.time) : shownStep ? sceneAtStep(like, scene.steps.find((s) => s.id === shownStep)) : like;
+  const viewEditable = canEdit && !shownStep && !following;
+
+  const onPick = (p: PickedPoint) => {
+    if (pinDraft) {
+      const pt = pinPointFromPick(p, pinDraft.frame);
+      if (pt) setPinDraft({ ...pinDraft, points: [...pinDraft.points, pt] });
+      return;
+    }
+    if (picking) {
+      setAnchor(anchorFromPick(p));
+      setPicking(false);
+      setTab('review');
+    }
+  };
+  const onViewChange = (s: SceneLike) => {
+    const patch: Partial<SceneOut> = {};
+    if (s.time && s.time !== scene.time) patch.time = s.time;
+    if (s.camera && !sameValue(s.camera, scene.camera)) patch.camera = { ...scene.camera, ...s.camera };
+    if (s.layers && !sameValue(s.layers, scene.layers)) patch.layers = s.layers;
+    if (Object.keys(patch).length) edit(patch);
+  };
+  const saveThumbnail = async () => {
+    if (!snap) return;
+    setSnapMsg(null);
+    try {
+      const small = await shrinkPng(snap);
+      const blob = await (await fetch(small)).blob();
+      const r = await request(`/api/scenes/${scene.id}/thumbnail`, { method: 'PUT', body: blob, headers: { 'content-type': 'image/png' } });
+      if (r.status === 404 || r.status === 405) {
+        // Older server: the thumbnail travels with a PATCH as a data URL.
+        await saver.flush();
+        const out = await apiPatch<{ scene: SceneOut }>(`/api/scenes/${scene.id}`, { version: saver.version, thumbnail: small });
+        saver.adopt(out.scene);
+      } else if (!r.ok) throw await readError(r);
+      setSnapMsg({ tone: 'success', text: 'Thumbnail saved.' });
+      setSnap(null);
+    } catch (e) {
+      setSnapMsg({ tone: 'error', text: `Thumbnail not saved: ${errorText(e)}` });
+    }
+  };
+
+  const tabs: { key: Tab; label: string }[] = [
+    { key: 'scene', label: canEdit ? 'Scene' : 'Details' },
+    { key: 'steps', label: `Steps (${scene.steps.length})` },
+    { key: 'review', label: `Review${markers.length ? ` (${(comments.data ?? []).filter((c) => !c.parentId && !c.resolved).length})` : ''}` },
+    ...(canEdit ? [{ key: 'share' as const, label: 'Share' }] : []),
+    { key: 'history', label: 'History' },
+  ];
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <div className="min-w-0">
+          <p className="text-xs uppercase tracking-[0.15em] text-ink-300">Scene · your role: {role}</p>
+          <h1 className="truncate text-2xl font-bold" data-testid="scene-title">
+            {scene.title}
+          </h1>
+        </div>
+        <div className="flex flex-wrap items-center gap-2">
+          {canEdit && <SaveBadge status={st.status} version={saver.version} />}
+          {st.status === 'error' && (
+            <Button variant="secondary" onClick={() => saver.retry()}>
+              Retry save
+            </Button>
+          )}
+          {following ? (
+            <FollowBadge connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} />
+          ) : (
+            <Button variant="secondary" onClick={() => setFollowing(true)}>
+              Follow presenter
+            </Button>
+          )}
+        </div>
+      </div>
+      {st.message && st.status === 'error' && <Alert tone="error">Not saved: {st.message}</Alert>}
+      {st.status === 'conflict' && st.theirs && (
+        <ConflictDialog mine={scene} theirs={st.theirs} dirty={st.dirty} onKeepMine={() => void saver.keepMine()} onTakeTheirs={() => saver.takeTheirs()} />
+      )}
+      {(picking || pinDraft) && (
+        <div role="status" className="rounded-md border border-brass-500/60 bg-brass-500/10 px-3 py-2 text-sm text-brass-200">
+          {pinDraft ? 'Click on the sky to place the pin’s points.' : 'Click on the sky where your comment belongs.'}{' '}
+          <button type="button" className="underline" onClick={() => (pinDraft ? setPinDraft(null) : setPicking(false))}>
+            Cancel
+          </button>
+        </div>
+      )}
+      <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
+        <div className="min-w-0" data-testid="sky">
+          <Sky scene={viewScene} edit={viewEditable} onChange={onViewChange} comments={markers} onPick={onPick} onSnapshot={canEdit ? setSnap : undefined} />
+          {shownStep && (
+            <p className="mt-2 text-sm text-brass-200">
+              Showing a step.{' '}
+              <button type="button" className="underline" onClick={() => setShownStep(null)}>
+                Back to the scene
+              </button>
+            </p>
+          )}
+          {canEdit && snap && (
+            <div className="mt-2 flex flex-wrap items-center gap-2 rounded border border-ink-700 p-2 text-sm">
+              <img src={snap} alt="The snapshot just taken" className="h-16 rounded border border-ink-700" />
+              <Button onClick={() => void saveThumbnail()}>Save snapshot as thumbnail</Button>
+              <Button variant="ghost" onClick={() => setSnap(null)}>
+                Dismiss
+              </Button>
+            </div>
+          )}
+          {snapMsg && (
+            <div className="mt-2">
+              <Alert tone={snapMsg.tone}>{snapMsg.text}</Alert>
+            </div>
+          )}
+        </div>
+        <div className="flex min-w-0 flex-col gap-3">
+          <Tabs label="Scene panels" tabs={tabs} current={tab} onChange={setTab} />
+          <div role="tabpanel" aria-label={tabs.find((t) => t.key === tab)?.label}>
+            {tab === 'scene' && <EditorPanel scene={scene} edit={edit} readOnly={!canEdit} pinDraft={pinDraft} setPinDraft={setPinDraft} />}
+            {tab === 'steps' && <StepsEditor scene={scene} onChange={(steps) => edit({ steps })} readOnly={!canEdit} onPresent={(i) => setPresenting(i)} onShowStep={setShownStep} shownStepId={shownStep} />}
+            {tab === 'review' && (
+              <ReviewPanel
+                access={access}
+                steps={scene.steps}
+                anchor={anchor}
+                onPick={() => setPicking(true)}
+                onClearAnchor={() => setAnchor(null)}
+                focusedId={focusedComment}
+                onFocus={(c: CommentOut) => setFocusedComment(c.id)}
+              />
+            )}
+            {tab === 'share' && canEdit && <SharePanel sceneId={scene.id} title={scene.title} />}
+            {tab === 'history' && <VersionHistory scene={{ ...scene, version: saver.version }} canRestore={canEdit} memberNames={memberNames} onRestored={(s) => saver.adopt(s)} />}
+          </div>
+        </div>
+      </div>
+      {presenting !== null && (
+        <Presenter scene={like} startIndex={presenting} onClose={() => setPresenting(null)} broadcastUrl={canEdit ? `/api/scenes/${scene.id}/presenter` : null} renderSky={(s) => <Sky scene={s} height="100%" />} />
+      )}
+    </div>
+  );
+}
+
+export default function SceneWorkspace(props: WorkspaceProps) {
+  return (
+    <QueryRoot>
+      <Workspace {...props} />
+    </QueryRoot>
+  );
+}

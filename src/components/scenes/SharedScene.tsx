@@ -1,0 +1,156 @@
+/** What a share link opens: the scene read-only, its steps, follow the presenter, and for reviewer links comments. */
+import { useMemo, useState } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { QueryRoot } from '../ui/QueryRoot';
+import { Button } from '../ui/Button';
+import { Alert } from '../ui/Alert';
+import { ApiError, apiGet, errorText } from '../../lib/client/api';
+import type { Anchor, LinkRole, PublicScene } from '../../lib/client/types';
+import { anchorFromPick, commentMarkers, formatInZone, sceneAtStep, toSceneLike } from '../../lib/client/scene-view';
+import { Sky, type PickedPoint } from './Sky';
+import { Tabs } from './bits';
+import { FollowBadge, useFollow } from '../briefing/Presenter';
+import { Markdown } from '../briefing/Markdown';
+import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+
+function Shared({ token, embed }: { token: string; embed: boolean }) {
+  const q = useQuery({
+    queryKey: ['shared', token],
+    queryFn: () => apiGet<{ scene: PublicScene; role: LinkRole }>(`/api/shared/${encodeURIComponent(token)}`),
+    retry: false,
+    refetchInterval: 60_000,
+  });
+  const [following, setFollowing] = useState(false);
+  const [stepIdx, setStepIdx] = useState<number | null>(null);
+  const [picking, setPicking] = useState(false);
+  const [anchor, setAnchor] = useState<Anchor | null>(null);
+  const [tab, setTab] = useState<'steps' | 'review'>(() => (typeof location !== 'undefined' && location.hash.startsWith('#comment-') ? 'review' : 'steps'));
+  const reviewer = q.data?.role === 'reviewer' && !embed;
+  const access: ReviewAccess = { kind: 'guest', token, canComment: true };
+  const comments = useComments(access, reviewer);
+  const markers = useMemo(() => (reviewer ? commentMarkers(comments.data ?? []) : []), [reviewer, comments.data]);
+  const follow = useFollow(following ? `/api/shared/${encodeURIComponent(token)}/presenter/stream` : null);
+
+  if (q.isPending) return <p className="p-4 text-sm text-ink-300">Loading the scene…</p>;
+  if (q.isError)
+    return (
+      <div className="p-4">
+        <Alert tone="error">{q.error instanceof ApiError && q.error.status === 404 ? 'This link does not exist, has expired or was revoked.' : errorText(q.error)}</Alert>
+      </div>
+    );
+  const { scene } = q.data;
+  if (embed && q.data.role !== 'viewer') return <Alert tone="error">Only viewer links can be embedded.</Alert>;
+  const like = toSceneLike(scene);
+  const idx = following && follow.state ? follow.state.stepIndex : stepIdx;
+  const step = idx !== null ? scene.steps[idx] : undefined;
+  const shown = following && follow.state ? sceneAtStep(like, step, follow.state.time) : sceneAtStep(like, step);
+  const onPick = (p: PickedPoint) => {
+    if (!picking) return;
+    setAnchor(anchorFromPick(p));
+    setPicking(false);
+    setTab('review');
+  };
+
+  const followCtl = following ? (
+    <FollowBadge connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} />
+  ) : (
+    <Button variant="secondary" onClick={() => setFollowing(true)}>
+      Follow presenter
+    </Button>
+  );
+
+  if (embed) {
+    return (
+      <div className="flex h-screen flex-col">
+        <div className="min-h-0 flex-1">
+          <Sky scene={shown} height="calc(100vh - 3rem)" />
+        </div>
+        <div className="flex h-12 items-center justify-between gap-2 border-t border-ink-800 px-3 text-xs">
+          <span className="truncate">
+            {scene.title} · {step ? `Step ${(idx ?? 0) + 1}: ${step.title}` : scene.site.name}
+          </span>
+          <span className="flex items-center gap-2">
+            {followCtl}
+            <a href={`/s/${encodeURIComponent(token)}`} target="_blank" rel="noopener" className="text-brass-300 underline">
+              Open in Armilla
+            </a>
+          </span>
+        </div>
+      </div>
+    );
+  }
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <div className="min-w-0">
+          <p className="text-xs uppercase tracking-[0.15em] text-ink-300">Shared scene · {q.data.role === 'reviewer' ? 'you may comment' : 'read-only'}</p>
+          <h1 className="text-2xl font-bold">{scene.title}</h1>
+          <p className="text-sm text-ink-300">
+            {scene.site.name} · {formatInZone(scene.time, scene.site.timeZone ?? 'UTC')}
+          </p>
+        </div>
+        {followCtl}
+      </div>
+      {picking && (
+        <div role="status" className="rounded-md border border-brass-500/60 bg-brass-500/10 px-3 py-2 text-sm text-brass-200">
+          Click on the sky where your comment belongs.{' '}
+          <button type="button" className="underline" onClick={() => setPicking(false)}>
+            Cancel
+          </button>
+        </div>
+      )}
+      <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="min-w-0" data-testid="sky">
+          <Sky scene={shown} comments={markers} onPick={onPick} />
+          {step?.caption && (
+            <div className="mt-3 rounded border border-ink-700 p-3">
+              <Markdown source={step.caption} />
+            </div>
+          )}
+        </div>
+        <div className="flex min-w-0 flex-col gap-3">
+          {scene.description && <Markdown source={scene.description} className="text-sm text-ink-300" />}
+          <Tabs
+            label="Shared scene panels"
+            current={tab}
+            onChange={setTab}
+            tabs={[{ key: 'steps', label: `Steps (${scene.steps.length})` }, ...(reviewer ? [{ key: 'review' as const, label: 'Comments' }] : [])]}
+          />
+          <div role="tabpanel">
+            {tab === 'steps' && (
+              <ol className="flex flex-col gap-2" aria-label="Steps">
+                {scene.steps.length === 0 && <li className="text-sm text-ink-300">This scene has no steps.</li>}
+                {scene.steps.map((s, i) => (
+                  <li key={s.id}>
+                    <button
+                      type="button"
+                      disabled={following}
+                      aria-pressed={idx === i}
+                      onClick={() => setStepIdx(stepIdx === i ? null : i)}
+                      className="w-full rounded border border-ink-700 p-2 text-left text-sm hover:border-brass-300 aria-pressed:border-brass-400 disabled:opacity-60"
+                    >
+                      <span className="font-medium">
+                        {i + 1}. {s.title || 'Untitled step'}
+                      </span>
+                      <span className="block text-xs text-ink-300">{formatInZone(s.time, scene.site.timeZone ?? 'UTC')}</span>
+                    </button>
+                  </li>
+                ))}
+              </ol>
+            )}
+            {tab === 'review' && reviewer && <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />}
+          </div>
+        </div>
+      </div>
+    </div>
+  );
+}
+
+export default function SharedScene(props: { token: string; embed?: boolean }) {
+  return (
+    <QueryRoot>
+      <Shared token={props.token} embed={!!props.embed} />
+    </QueryRoot>
+  );
+}
