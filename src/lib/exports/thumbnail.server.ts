@@ -1,0 +1,48 @@
+/**
+ * The scene's PNG thumbnail (a snapshot of the WebGL view). Stored in scenes.thumbnail. Replacing it is
+ * not a content change: the scene's version is not bumped, so a snapshot upload never makes an editor's
+ * next PATCH conflict.
+ */
+import { createHash } from 'node:crypto';
+import { eq } from 'drizzle-orm';
+import type { User } from 'lucia';
+import type { DbOrTx } from '../server/db/client';
+import { scenes } from '../server/db/schema';
+import { audit } from '../server/audit';
+import { HttpError, notFound } from '../server/http';
+import { sceneFor, writeTx } from '../server/scenes.server';
+import { readCapped } from '../imports/upload';
+
+export const MAX_PNG_BYTES = 2 * 1024 * 1024;
+const PNG_SIGNATURE = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
+
+/** PNG signature followed by an IHDR chunk (PNG spec, ISO/IEC 15948 §5.2, §11.2.2). */
+export function isPng(b: Uint8Array): boolean {
+  if (b.length < 33) return false;
+  if (!PNG_SIGNATURE.every((x, i) => b[i] === x)) return false;
+  const ihdrLen = (b[8]! << 24) | (b[9]! << 16) | (b[10]! << 8) | b[11]!;
+  return ihdrLen === 13 && String.fromCharCode(b[12]!, b[13]!, b[14]!, b[15]!) === 'IHDR';
+}
+
+export async function putThumbnail(db: DbOrTx, user: User, sceneId: string, request: Request): Promise<{ bytes: number }> {
+  const { row } = await sceneFor(db, user, sceneId, 'scene.write');
+  const type = (request.headers.get('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
+  if (type !== 'image/png') throw new HttpError(400, 'invalid', 'content-type: send the snapshot as image/png.', 'content-type');
+  const bytes = await readCapped(request, MAX_PNG_BYTES);
+  if (!isPng(bytes)) throw new HttpError(422, 'invalid_png', 'The body is not a PNG image (bad signature or header).', 'body');
+  await writeTx(db, async (tx) => {
+    await tx.update(scenes).set({ thumbnail: Buffer.from(bytes) }).where(eq(scenes.id, row.id));
+    await audit(tx, { teamId: row.teamId, userId: user.id, action: 'scene.thumbnail', subjectType: 'scene', subjectId: row.id, detail: { bytes: bytes.length } });
+  });
+  return { bytes: bytes.length };
+}
+
+export async function getThumbnail(db: DbOrTx, user: User, sceneId: string, ifNoneMatch: string | null): Promise<Response> {
+  const { row } = await sceneFor(db, user, sceneId, 'scene.read');
+  if (!row.thumbnail) throw notFound('Thumbnail');
+  const bytes = new Uint8Array(row.thumbnail);
+  const etag = `"${createHash('sha256').update(bytes).digest('base64url').slice(0, 22)}"`;
+  const headers = { 'content-type': 'image/png', 'cache-control': 'private, no-cache', etag };
+  if (ifNoneMatch === etag) return new Response(null, { status: 304, headers });
+  return new Response(bytes, { headers: { ...headers, 'content-length': String(bytes.length) } });
+}
