@@ -1,6 +1,6 @@
 /** The scene's fields: editors change them (autosaved), viewers and reviewers read them. */
 import { useEffect, useMemo, useState, useId } from 'react';
-import { useQuery } from '@tanstack/react-query';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { cameraSchema, LAYER_KEYS, siteSchema, type Camera, type LayerKey, type Layers, type Site } from '../../lib/scenes/scene';
 import { envelopeSchema } from '../../lib/server/envelope-schema';
 import { apiGet } from '../../lib/client/api';
@@ -9,6 +9,13 @@ import { formatInZone, inputUtcToIso, isoToInputUtc } from '../../lib/client/sce
 import { Button } from '../ui/Button';
 import { INPUT, LABEL, NumberField, Section } from './bits';
 import { TargetsEditor } from './TargetsEditor';
+import { HorizonImport, SkylineProfile } from './HorizonImport';
+
+/** Server round-trips the imports need: save pending edits first, then re-read the scene (new version). */
+export interface SceneSync {
+  flush: () => Promise<void>;
+  reload: () => Promise<void>;
+}
 import { PinsEditor, type PinDraft } from './PinsEditor';
 
 type Edit = (patch: Partial<SceneOut>) => void;
@@ -216,8 +223,9 @@ const ENV_NUMBERS = [
   ['moonAvoidance', 'Moon avoidance', 0, 180],
 ] as const;
 
-function EnvelopeSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; readOnly: boolean }) {
+function EnvelopeSection({ scene, edit, readOnly, sync }: { scene: SceneOut; edit: Edit; readOnly: boolean; sync?: SceneSync }) {
   const id = useId();
+  const qc = useQueryClient();
   const list = useQuery({ queryKey: ['envelopes', scene.teamId], queryFn: () => apiGet<{ envelopes: EnvelopeOut[] }>(`/api/teams/${scene.teamId}/envelopes`) });
   const [err, setErr] = useState<string | null>(null);
   const mode = scene.envelopeId ? 'team' : scene.envelope ? 'inline' : 'none';
@@ -298,6 +306,29 @@ function EnvelopeSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edi
           )}
         </div>
       )}
+      {mode !== 'none' && (
+        <div className="flex flex-col gap-1" aria-label="Horizon mask">
+          <p className={LABEL}>Horizon mask</p>
+          {readOnly ? (
+            Array.isArray(env.horizonMask) && (env.horizonMask as unknown[]).length > 0 ? (
+              <SkylineProfile mask={env.horizonMask as [number, number][]} title={`Horizon mask, ${(env.horizonMask as unknown[]).length} points`} />
+            ) : (
+              <p className="text-xs text-ink-300">No horizon mask.</p>
+            )
+          ) : (
+            <HorizonImport
+              key={scene.envelopeId ?? 'inline'}
+              envelopeId={scene.envelopeId ?? null}
+              currentMask={Array.isArray(env.horizonMask) ? (env.horizonMask as [number, number][]) : null}
+              onApplyInline={(horizonMask) => setInline({ horizonMask })}
+              onDone={async () => {
+                await qc.invalidateQueries({ queryKey: ['envelopes', scene.teamId] });
+                await sync?.reload();
+              }}
+            />
+          )}
+        </div>
+      )}
       {err && (
         <p role="alert" className="text-xs text-danger-300">
           {err}
@@ -339,8 +370,8 @@ function TitleInput({ id, value, readOnly, onCommit }: { id: string; value: stri
   );
 }
 
-export function EditorPanel(props: { scene: SceneOut; edit: Edit; readOnly: boolean; pinDraft: PinDraft | null; setPinDraft: (d: PinDraft | null) => void }) {
-  const { scene, edit, readOnly } = props;
+export function EditorPanel(props: { scene: SceneOut; edit: Edit; readOnly: boolean; pinDraft: PinDraft | null; setPinDraft: (d: PinDraft | null) => void; sync?: SceneSync }) {
+  const { scene, edit, readOnly, sync } = props;
   const id = useId();
   return (
     <div className="flex flex-col gap-3">
@@ -364,7 +395,12 @@ export function EditorPanel(props: { scene: SceneOut; edit: Edit; readOnly: bool
         <TimeSection scene={scene} edit={edit} readOnly={readOnly} />
       </Section>
       <Section title={`Targets (${scene.targets.length})`}>
-        <TargetsEditor targets={scene.targets} onChange={(targets) => edit({ targets })} readOnly={readOnly} />
+        <TargetsEditor
+          targets={scene.targets}
+          onChange={(targets) => edit({ targets })}
+          readOnly={readOnly}
+          importer={sync ? { sceneId: scene.id, beforeImport: sync.flush, onImported: async () => sync.reload() } : undefined}
+        />
       </Section>
       <Section title={`Pins (${scene.pins.length})`} defaultOpen={!!props.pinDraft}>
         <PinsEditor pins={scene.pins} onChange={(pins) => edit({ pins })} readOnly={readOnly} draft={props.pinDraft} setDraft={props.setPinDraft} />
@@ -376,7 +412,7 @@ export function EditorPanel(props: { scene: SceneOut; edit: Edit; readOnly: bool
         <CameraSection camera={scene.camera} edit={(camera) => edit({ camera })} readOnly={readOnly} />
       </Section>
       <Section title="Envelope">
-        <EnvelopeSection scene={scene} edit={edit} readOnly={readOnly} />
+        <EnvelopeSection scene={scene} edit={edit} readOnly={readOnly} sync={sync} />
       </Section>
     </div>
   );

@@ -10,6 +10,7 @@ import { inputUtcToIso } from '../../lib/client/scene-view';
 import type { Site } from '../../lib/scenes/scene';
 import { SiteForm } from './EditorPanel';
 import { INPUT, LABEL } from './bits';
+import { SceneFileImport } from './SceneFileImport';
 
 type Mode = 'blank' | 'site' | 'copy';
 interface TeamLite {
@@ -57,6 +58,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
   });
   if (!teams.length) return <Alert tone="info">You need the editor role in a team to create scenes.</Alert>;
   return (
+    <>
     <form
       className="flex max-w-2xl flex-col gap-4"
       onSubmit={(e) => {
@@ -152,6 +154,8 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
         </Button>
       </div>
     </form>
+    <SceneFileImport teamId={teamId} teamName={teams.find((t) => t.id === teamId)?.name ?? ''} />
+    </>
   );
 }
 

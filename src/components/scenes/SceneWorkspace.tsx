@@ -12,12 +12,13 @@ import { Autosave, type SaveFn } from '../../lib/client/autosave';
 import type { Anchor, CommentOut, Role, SceneOut } from '../../lib/client/types';
 import { anchorFromPick, commentMarkers, pinPointFromPick, sceneAtStep, toSceneLike, type SceneLike } from '../../lib/client/scene-view';
 import { sameValue } from '../../lib/client/scene-diff';
-import { EditorPanel } from './EditorPanel';
+import { EditorPanel, type SceneSync } from './EditorPanel';
+import { ExportPanel } from './ExportPanel';
 import type { PinDraft } from './PinsEditor';
 import { ConflictDialog } from './ConflictDialog';
 import { VersionHistory } from './VersionHistory';
 import { SharePanel } from './SharePanel';
-import { SaveBadge, Tabs } from './bits';
+import { SaveBadge, Section, Tabs } from './bits';
 import { Sky, shrinkPng, type PickedPoint } from './Sky';
 import { StepsEditor } from '../briefing/StepsEditor';
 import { FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
@@ -51,6 +52,18 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
   const st = useSyncExternalStore(saver.subscribe, saver.get, saver.get);
   const scene = st.local;
   const edit = useCallback((p: Partial<SceneOut>) => canEdit && saver.edit(p), [canEdit, saver]);
+  // Imports change the scene on the server: save pending edits first, then re-read it (new version) so
+  // autosave continues from the server's version instead of running into a conflict.
+  const sync = useMemo<SceneSync>(
+    () => ({
+      flush: () => saver.flush(),
+      reload: async () => {
+        const r = await apiGet<{ scene: SceneOut }>(`/api/scenes/${encodeURIComponent(initial.id)}`);
+        saver.adopt(r.scene);
+      },
+    }),
+    [saver, initial.id],
+  );
 
   // Leaving with unsaved edits: flush and warn.
   useEffect(() => {
@@ -200,7 +213,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
         <div className="flex min-w-0 flex-col gap-3">
           <Tabs label="Scene panels" tabs={tabs} current={tab} onChange={setTab} />
           <div role="tabpanel" aria-label={tabs.find((t) => t.key === tab)?.label}>
-            {tab === 'scene' && <EditorPanel scene={scene} edit={edit} readOnly={!canEdit} pinDraft={pinDraft} setPinDraft={setPinDraft} />}
+            {tab === 'scene' && <EditorPanel scene={scene} edit={edit} readOnly={!canEdit} pinDraft={pinDraft} setPinDraft={setPinDraft} sync={canEdit ? sync : undefined} />}
             {tab === 'steps' && <StepsEditor scene={scene} onChange={(steps) => edit({ steps })} readOnly={!canEdit} onPresent={(i) => setPresenting(i)} onShowStep={setShownStep} shownStepId={shownStep} />}
             {tab === 'review' && (
               <ReviewPanel
@@ -216,6 +229,9 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
             {tab === 'share' && canEdit && <SharePanel sceneId={scene.id} title={scene.title} />}
             {tab === 'history' && <VersionHistory scene={{ ...scene, version: saver.version }} canRestore={canEdit} memberNames={memberNames} onRestored={(s) => saver.adopt(s)} />}
           </div>
+          <Section title="Export & print">
+            <ExportPanel source={{ kind: 'scene', id: scene.id }} time={viewScene.time} />
+          </Section>
         </div>
       </div>
       {presenting !== null && (

@@ -8,7 +8,8 @@ import { ApiError, apiGet, errorText } from '../../lib/client/api';
 import type { Anchor, LinkRole, PublicScene } from '../../lib/client/types';
 import { anchorFromPick, commentMarkers, formatInZone, sceneAtStep, toSceneLike } from '../../lib/client/scene-view';
 import { Sky, type PickedPoint } from './Sky';
-import { Tabs } from './bits';
+import { Section, Tabs } from './bits';
+import { ExportPanel } from './ExportPanel';
 import { FollowBadge, useFollow } from '../briefing/Presenter';
 import { Markdown } from '../briefing/Markdown';
 import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
@@ -141,6 +142,9 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
             )}
             {tab === 'review' && reviewer && <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />}
           </div>
+          <Section title="Export & print">
+            <ExportPanel source={{ kind: 'shared', token }} time={shown.time} />
+          </Section>
         </div>
       </div>
     </div>

@@ -5,6 +5,14 @@ import { formatDecDms, formatRaHms, parseDec, parseRa } from '../../lib/imports/
 import { newId } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
 import { INPUT, LABEL } from './bits';
+import { TargetsImport } from './TargetsImport';
+
+/** What the CSV import needs: the scene, and how to sync with the server before and after. */
+export interface TargetsImporter {
+  sceneId: string;
+  beforeImport: () => Promise<void>;
+  onImported: (added: number) => Promise<void>;
+}
 
 type Hit = { hr: number; designation: string; name: string | null; raDeg: number; decDeg: number; vmag: number };
 
@@ -43,7 +51,7 @@ export function describeTarget(t: Target): string {
   return `${formatRaHms(t.ra, 1)}  ${formatDecDms(t.dec, 0)}`;
 }
 
-export function TargetsEditor({ targets, onChange, readOnly }: { targets: Target[]; onChange: (t: Target[]) => void; readOnly: boolean }) {
+export function TargetsEditor({ targets, onChange, readOnly, importer }: { targets: Target[]; onChange: (t: Target[]) => void; readOnly: boolean; importer?: TargetsImporter }) {
   const id = useId();
   const [q, setQ] = useState('');
   const { hits, loading } = useCatalogueSearch(q);
@@ -165,6 +173,7 @@ export function TargetsEditor({ targets, onChange, readOnly }: { targets: Target
               Add custom target
             </Button>
           </fieldset>
+          {importer && <TargetsImport sceneId={importer.sceneId} beforeImport={importer.beforeImport} onImported={importer.onImported} />}
         </>
       )}
     </div>
