@@ -98,7 +98,7 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
     log: () => out,
     kill: async (signal = 'SIGTERM') => {
       const p = server.proc;
-      if (p.exitCode !== null) return;
+      if (p.exitCode !== null || p.signalCode !== null) return;
       await new Promise<void>((r) => {
         p.once('exit', () => r());
         p.kill(signal);

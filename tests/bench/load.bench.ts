@@ -1,0 +1,5 @@
+// `npm run bench` entry for the HTTP load test: the same run as `npm run load` (scripts/load.ts),
+// which writes tests/bench/results/load.json for the bench summary.
+import { runLoad } from '../../scripts/load';
+
+await runLoad();
