@@ -73,7 +73,7 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
   const url = `http://127.0.0.1:${port}`;
   let out = '';
   const launch = () => {
-    const proc = spawn(process.execPath, [resolve('dist/server/entry.mjs')], {
+    const proc = spawn(process.execPath, [resolve(process.env.ARMILLA_DIST ?? 'dist', 'server/entry.mjs')], {
       env: {
         ...process.env,
         HOST: '127.0.0.1',

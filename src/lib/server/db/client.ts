@@ -1,6 +1,7 @@
 import { createClient, type Client } from '@libsql/client';
 import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
 import * as schema from './schema';
+import { serialiseWrites } from './write-lock';
 
 export type Db = LibSQLDatabase<typeof schema>;
 /** A transaction handle; services accept `Db | Tx`. */
@@ -28,7 +29,8 @@ export async function openDb(url = DEFAULT_DATABASE_URL, authToken?: string): Pr
     if (path && path !== ':memory:') mkdirSync(dirname(path), { recursive: true });
   }
   // `timeout` is the busy timeout of every connection in the client's pool (a PRAGMA would reach only one).
-  const client = createClient({ url, ...(authToken ? { authToken } : {}), timeout: 5000 });
+  const raw = createClient({ url, ...(authToken ? { authToken } : {}), timeout: 5000 });
+  const client = url.startsWith('file:') ? serialiseWrites(raw) : raw;
   if (url.startsWith('file:')) {
     // journal_mode is stored in the file; synchronous is per connection and FULL is libSQL's default,
     // asserted here and checked by tests/integration/durability.test.ts.
