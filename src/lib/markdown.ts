@@ -14,7 +14,7 @@ export type Inline =
   | { t: 'link'; href: string; c: Inline[] }
   | { t: 'br' };
 
-export type Block = { t: 'p'; c: Inline[] } | { t: 'ul'; items: Inline[][] } | { t: 'ol'; start: number; items: Inline[][] };
+export type Block = { t: 'h'; level: 1 | 2 | 3; c: Inline[] } | { t: 'p'; c: Inline[] } | { t: 'ul'; items: Inline[][] } | { t: 'ol'; start: number; items: Inline[][] };
 
 const MAX_INPUT = 20_000;
 const MAX_DEPTH = 8;
@@ -139,6 +139,9 @@ export function parseInline(s: string, depth = 0): Inline[] {
 const UL = /^\s{0,3}[-*+]\s+(.*)$/;
 const OL = /^\s{0,3}(\d{1,9})[.)]\s+(.*)$/;
 
+/** ATX headings `#` … `######` (levels past 3 render as level 3). */
+const HEADING = /^\s{0,3}(#{1,6})\s+(.*?)\s*#*\s*$/;
+
 export function parseMarkdown(src: string): Block[] {
   const text = String(src ?? '').slice(0, MAX_INPUT).replace(/\r\n?/g, '\n');
   const blocks: Block[] = [];
@@ -164,6 +167,13 @@ export function parseMarkdown(src: string): Block[] {
     if (line.trim() === '') {
       flushPara();
       flushList();
+      continue;
+    }
+    const h = HEADING.exec(line);
+    if (h) {
+      flushPara();
+      flushList();
+      blocks.push({ t: 'h', level: Math.min(3, h[1]!.length) as 1 | 2 | 3, c: parseInline(h[2]!.trim()) });
       continue;
     }
     const u = UL.exec(line);
@@ -217,6 +227,8 @@ export function renderMarkdown(src: string): string {
   return parseMarkdown(src)
     .map((b) => {
       if (b.t === 'p') return `<p>${inlineHtml(b.c)}</p>`;
+      // Captions sit inside a page that has its own h1/h2: heading levels start at h3.
+      if (b.t === 'h') return `<h${b.level + 2} class="md-h">${inlineHtml(b.c)}</h${b.level + 2}>`;
       const items = b.items.map((it) => `<li>${inlineHtml(it)}</li>`).join('');
       if (b.t === 'ul') return `<ul>${items}</ul>`;
       return b.start === 1 ? `<ol>${items}</ol>` : `<ol start="${b.start}">${items}</ol>`;
@@ -229,7 +241,7 @@ export function markdownToText(src: string): string {
   const flat = (nodes: Inline[]): string =>
     nodes.map((n) => (n.t === 'text' || n.t === 'code' ? n.v : n.t === 'br' ? ' ' : 'c' in n ? flat(n.c) : '')).join('');
   return parseMarkdown(src)
-    .map((b) => (b.t === 'p' ? flat(b.c) : b.items.map(flat).join('; ')))
+    .map((b) => (b.t === 'p' || b.t === 'h' ? flat(b.c) : b.items.map(flat).join('; ')))
     .join(' ')
     .trim();
 }

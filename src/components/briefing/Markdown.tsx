@@ -36,6 +36,14 @@ export function Markdown({ source, className = '' }: { source: string; className
       {blocks.map((b, i) =>
         b.t === 'p' ? (
           <p key={i}>{inline(b.c)}</p>
+        ) : b.t === 'h' ? (
+          b.level === 1 ? (
+            <h3 key={i} className="text-lg font-semibold">{inline(b.c)}</h3>
+          ) : b.level === 2 ? (
+            <h4 key={i} className="text-base font-semibold">{inline(b.c)}</h4>
+          ) : (
+            <h5 key={i} className="text-sm font-semibold uppercase tracking-wide">{inline(b.c)}</h5>
+          )
         ) : b.t === 'ul' ? (
           <ul key={i} className="list-disc pl-5">
             {b.items.map((it, k) => (

@@ -166,7 +166,8 @@ export function buildHandout(scene: SceneOut, opts: HandoutOptions = {}): Handou
       set: first('set') ? iso(first('set')!.time) : null,
       note: ev.alwaysUp ? 'up all window' : ev.alwaysDown ? 'below the horizon all window' : '',
     });
-    push(ev.events, t.name);
+    // The Sun's and the Moon's events are listed once already, under their own names.
+    if (!(t.kind === 'body' && (t.body === 'sun' || t.body === 'moon'))) push(ev.events, t.name);
     if (o.altDeg >= 0) {
       const p = project(o.altDeg, o.azDeg, CHART);
       targetMarks.push({ id: t.id, label: t.name, kind: t.kind, x: round(p.x), y: round(p.y), alt: o.altDeg, az: o.azDeg });

@@ -15,12 +15,24 @@ export const chromiumAvailable = existsSync(CHROMIUM_PATH);
 /** `browserTest(...)` in place of `test(...)`: skipped only when the browser is absent and not in CI. */
 export const browserTest = chromiumAvailable || process.env.CI === 'true' ? test : test.skip;
 
+/** Software WebGL (SwiftShader through ANGLE): no GPU anywhere. The rest keeps Chromium off the network. */
+export const BROWSER_ARGS = [
+  '--no-sandbox',
+  '--use-gl=angle',
+  '--use-angle=swiftshader',
+  '--enable-unsafe-swiftshader',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--no-first-run',
+];
+
 export async function launch(): Promise<Browser> {
   if (!chromiumAvailable) throw new Error(`${CHROMIUM_PATH} is missing: install Debian's chromium (apt-get install -y chromium)`);
   return chromium.launch({
     executablePath: CHROMIUM_PATH,
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+    args: BROWSER_ARGS,
   });
 }
 

@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { parseMarkdown, renderMarkdown, safeHref, markdownToText } from '../../../src/lib/markdown';
 
 /** Every tag the renderer may emit; anything else in the output would be injected markup. */
-const ALLOWED_TAG = /<\/?(p|ul|ol|li|strong|em|code|br)>|<ol start="\d+">|<a href="[^"<>]*" rel="noopener noreferrer nofollow" target="_blank">|<\/a>/g;
+const ALLOWED_TAG = /<\/?(p|ul|ol|li|strong|em|code|br|h3|h4|h5)>|<h[345] class="md-h">|<ol start="\d+">|<a href="[^"<>]*" rel="noopener noreferrer nofollow" target="_blank">|<\/a>/g;
 
 function assertOnlyOwnMarkup(html: string) {
   const rest = html.replace(ALLOWED_TAG, '');
@@ -107,5 +107,17 @@ describe('safeHref', () => {
     expect(safeHref('http://example.org')).toBe('http://example.org/');
     for (const bad of ['javascript:alert(1)', 'mailto:a@b.example', '/relative', '//evil.example', 'ftp://x.example', 'https://', 'https://a b.example', 'data:,x'])
       expect(safeHref(bad)).toBeNull();
+  });
+});
+
+describe('headings', () => {
+  // CommonMark 0.31 §4.2 (ATX headings): `#`–`######` then a space; closing #s are dropped.
+  it('renders ATX headings below the page headings, escaped', () => {
+    expect(renderMarkdown('## Where we stand ##')).toBe('<h4 class="md-h">Where we stand</h4>');
+    expect(renderMarkdown('# A <b>')).toBe('<h3 class="md-h">A &lt;b&gt;</h3>');
+    expect(renderMarkdown('#no-space')).toBe('<p>#no-space</p>');
+  });
+  it('a heading ends the paragraph before it', () => {
+    expect(renderMarkdown('text\n### Next')).toBe('<p>text</p>\n<h5 class="md-h">Next</h5>');
   });
 });
