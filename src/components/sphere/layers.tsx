@@ -1,0 +1,467 @@
+/**
+ * The scene as a list of layers. Each layer keeps its three.js objects for its lifetime and refreshes its
+ * buffers in useFrame only when the model's version moved (time or site changed): no React state per frame.
+ */
+import { useFrame } from '@react-three/fiber';
+import { useEffect, useMemo, useRef } from 'react';
+import * as THREE from 'three';
+import { Line2 } from 'three/examples/jsm/lines/Line2.js';
+import { LineGeometry } from 'three/examples/jsm/lines/LineGeometry.js';
+import type { LineMaterial } from 'three/examples/jsm/lines/LineMaterial.js';
+import { useView } from './context';
+import * as engine from './engine';
+import { altAzToEnu, buildGrid, enuListToWorld, enuToWorld, SPHERE_RADIUS, starSizePx, starTint, unitFromLonLat } from './geometry';
+import { bodyMaterial, patternLineMaterial, starMaterial } from './materials';
+import { RING_SEGMENTS } from './model';
+import { CIRCLE_STYLES, COLORS, GRID_STYLES, type CircleKey } from './styles';
+
+const R = SPHERE_RADIUS;
+
+/** Pixels per world unit at the distance of the sphere, for screen-sized dash patterns. */
+function pxPerUnit(camera: THREE.Camera, height: number, t: number): number {
+  const cam = camera as THREE.PerspectiveCamera;
+  const dist = R * (1 - t) + Math.max(R, cam.position.length()) * t;
+  return height / (2 * dist * Math.tan((cam.fov * Math.PI) / 360));
+}
+
+/** A fat polyline whose vertices are rewritten in place (no allocation after creation). */
+class PolyLine {
+  geom = new LineGeometry();
+  line: Line2;
+  n: number;
+  constructor(public mat: LineMaterial, points: number) {
+    this.n = points;
+    this.geom.setPositions(new Float32Array(points * 3));
+    this.line = new Line2(this.geom, mat);
+    this.line.frustumCulled = false;
+  }
+  /** Writes a polyline of world points into the segment buffer; dash distances are updated in place. */
+  set(world: ArrayLike<number>) {
+    const attr = this.geom.attributes.instanceStart as THREE.InterleavedBufferAttribute;
+    const arr = attr.data.array as Float32Array;
+    const segs = this.n - 1;
+    for (let i = 0; i < segs; i++) {
+      for (let k = 0; k < 3; k++) {
+        arr[i * 6 + k] = world[i * 3 + k];
+        arr[i * 6 + 3 + k] = world[(i + 1) * 3 + k];
+      }
+    }
+    attr.data.needsUpdate = true;
+    let dAttr = this.geom.attributes.instanceDistanceStart as THREE.InterleavedBufferAttribute | undefined;
+    if (!dAttr) {
+      this.line.computeLineDistances();
+      dAttr = this.geom.attributes.instanceDistanceStart as THREE.InterleavedBufferAttribute;
+    }
+    const d = dAttr.data.array as Float32Array;
+    let acc = 0;
+    for (let i = 0; i < segs; i++) {
+      const dx = arr[i * 6 + 3] - arr[i * 6], dy = arr[i * 6 + 4] - arr[i * 6 + 1], dz = arr[i * 6 + 5] - arr[i * 6 + 2];
+      d[i * 2] = acc;
+      acc += Math.sqrt(dx * dx + dy * dy + dz * dz);
+      d[i * 2 + 1] = acc;
+    }
+    dAttr.data.needsUpdate = true;
+  }
+  dispose() {
+    this.geom.dispose();
+    this.mat.dispose();
+  }
+}
+
+export function Ring({ k }: { k: CircleKey }) {
+  const { model, cam } = useView();
+  const style = CIRCLE_STYLES[k];
+  const pl = useMemo(() => new PolyLine(patternLineMaterial(style.color, style.widthPx, style.pattern), RING_SEGMENTS + 1), [k]);
+  const world = useMemo(() => new Float32Array((RING_SEGMENTS + 1) * 3), []);
+  const last = useRef(-1);
+  useEffect(() => () => pl.dispose(), [pl]);
+  useFrame(({ camera, size }) => {
+    if (last.current !== model.version) {
+      enuListToWorld(model.rings[k], R, world);
+      pl.set(world);
+      last.current = model.version;
+    }
+    pl.mat.resolution.set(size.width, size.height);
+    pl.mat.dashScale = pxPerUnit(camera, size.height, cam.t);
+  });
+  return <primitive object={pl.line} renderOrder={3} />;
+}
+
+/** Row-major frame → ENU (3×3) to a three Matrix4 frame → world. */
+function frameToWorld(out: THREE.Matrix4, m: ArrayLike<number> | null): THREE.Matrix4 {
+  if (!m) return out.set(1, 0, 0, 0, 0, 0, 1, 0, 0, -1, 0, 0, 0, 0, 0, 1);
+  return out.set(m[0], m[1], m[2], 0, m[6], m[7], m[8], 0, -m[3], -m[4], -m[5], 0, 0, 0, 0, 1);
+}
+
+/** A coordinate grid built once in its own frame; the engine's rotation for the instant is the object matrix. */
+export function Grid({ kind }: { kind: 'altAzGrid' | 'raDecGrid' | 'eclipticGrid' }) {
+  const { model } = useView();
+  const obj = useMemo(() => {
+    const g = buildGrid(
+      kind === 'altAzGrid' ? (az, alt, o) => altAzToEnu(o, az, alt) : (lon, lat, o) => unitFromLonLat(o, lon, lat),
+      { lonStep: kind === 'raDecGrid' ? 15 : 30, latStep: 15, stepDeg: 3, lonLabel: String, latLabel: String },
+    );
+    const pos = new Float32Array(g.segments.length);
+    for (let i = 0; i < pos.length; i++) pos[i] = g.segments[i] * R;
+    const geom = new THREE.BufferGeometry();
+    geom.setAttribute('position', new THREE.BufferAttribute(pos, 3));
+    const st = GRID_STYLES[kind];
+    const mat = new THREE.LineBasicMaterial({ color: st.color, transparent: true, opacity: st.opacity, depthWrite: false });
+    const ls = new THREE.LineSegments(geom, mat);
+    ls.matrixAutoUpdate = false;
+    ls.frustumCulled = false;
+    return ls;
+  }, [kind]);
+  useEffect(() => () => {
+    obj.geometry.dispose();
+    (obj.material as THREE.Material).dispose();
+  }, [obj]);
+  const last = useRef(-1);
+  useFrame(() => {
+    if (last.current === model.version) return;
+    last.current = model.version;
+    const m = kind === 'altAzGrid' ? null : kind === 'raDecGrid' ? model.frame.icrsToEnu : model.eclToEnu;
+    frameToWorld(obj.matrix, m);
+    obj.matrixWorldNeedsUpdate = true;
+  });
+  return <primitive object={obj} renderOrder={1} />;
+}
+
+export function Stars({ limit }: { limit: number }) {
+  const { model, store } = useView();
+  const ready = store.get().catalogueReady;
+  const points = useMemo(() => {
+    const cat = model.cat;
+    const n = cat?.count ?? 0;
+    const geom = new THREE.BufferGeometry();
+    const size = new Float32Array(n);
+    const color = new Float32Array(n * 3);
+    for (let i = 0; i < n; i++) {
+      size[i] = starSizePx(cat!.vmag[i]);
+      const c = starTint(cat!.vmag[i]);
+      color[i * 3] = c[0];
+      color[i * 3 + 1] = c[1];
+      color[i * 3 + 2] = c[2];
+    }
+    geom.setAttribute('position', new THREE.BufferAttribute(new Float32Array(n * 3), 3));
+    geom.setAttribute('aSize', new THREE.BufferAttribute(size, 1));
+    geom.setAttribute('aColor', new THREE.BufferAttribute(color, 3));
+    const p = new THREE.Points(geom, starMaterial());
+    p.frustumCulled = false;
+    return p;
+  }, [ready, model]);
+  useEffect(() => () => {
+    points.geometry.dispose();
+    (points.material as THREE.Material).dispose();
+  }, [points]);
+  const last = useRef(-1);
+  useFrame(({ gl }) => {
+    (points.material as THREE.ShaderMaterial).uniforms.uPixelRatio.value = gl.getPixelRatio();
+    points.geometry.setDrawRange(0, model.starCountTo(limit));
+    if (last.current === model.version) return;
+    last.current = model.version;
+    const attr = points.geometry.attributes.position as THREE.BufferAttribute;
+    enuListToWorld(model.starEnu, R, attr.array as Float32Array);
+    attr.needsUpdate = true;
+  });
+  return <primitive object={points} renderOrder={2} />;
+}
+
+const BODY_COLORS: Record<string, string> = {
+  sun: COLORS.sun, moon: COLORS.moonLit, mercury: '#d9c8b4', venus: '#fff4d6', mars: '#ff9f80', jupiter: '#f3deb8', saturn: '#ead9a4', uranus: '#b9f1ef', neptune: '#9fb8ff',
+};
+
+export function Bodies() {
+  const { model } = useView();
+  const N = 9;
+  const points = useMemo(() => {
+    const geom = new THREE.BufferGeometry();
+    geom.setAttribute('position', new THREE.BufferAttribute(new Float32Array(N * 3), 3));
+    geom.setAttribute('aSize', new THREE.BufferAttribute(new Float32Array(N), 1));
+    geom.setAttribute('aColor', new THREE.BufferAttribute(new Float32Array(N * 3), 3));
+    geom.setAttribute('aLight', new THREE.BufferAttribute(new Float32Array(N * 3), 3));
+    const p = new THREE.Points(geom, bodyMaterial());
+    p.frustumCulled = false;
+    return p;
+  }, []);
+  useEffect(() => () => {
+    points.geometry.dispose();
+    (points.material as THREE.Material).dispose();
+  }, [points]);
+  const last = useRef(-1);
+  const s = useMemo(() => ({ m: new THREE.Vector3(), sv: new THREE.Vector3(), c: new THREE.Color(), w: [0, 0, 0] }), []);
+  useFrame(({ camera, gl }) => {
+    (points.material as THREE.ShaderMaterial).uniforms.uPixelRatio.value = gl.getPixelRatio();
+    const g = points.geometry;
+    const pos = g.attributes.position as THREE.BufferAttribute;
+    const size = g.attributes.aSize as THREE.BufferAttribute;
+    const col = g.attributes.aColor as THREE.BufferAttribute;
+    const light = g.attributes.aLight as THREE.BufferAttribute;
+    const bodies = model.bodies;
+    if (last.current !== model.version) {
+      last.current = model.version;
+      for (let i = 0; i < N; i++) {
+        const b = bodies[i];
+        if (!b) {
+          size.setX(i, 0);
+          continue;
+        }
+        enuToWorld(s.w, b.enu, R * 0.995);
+        pos.setXYZ(i, s.w[0], s.w[1], s.w[2]);
+        size.setX(i, b.body === 'sun' || b.body === 'moon' ? 24 : Math.max(5, Math.min(11, 7 - b.magnitude)));
+        s.c.set(BODY_COLORS[b.body] ?? COLORS.planet);
+        col.setXYZ(i, s.c.r, s.c.g, s.c.b);
+      }
+      pos.needsUpdate = size.needsUpdate = col.needsUpdate = true;
+    }
+    // The Moon's lit side faces the Sun on screen; its phase angle comes from the engine.
+    camera.updateMatrixWorld();
+    for (let i = 0; i < N; i++) {
+      const b = bodies[i];
+      if (!b || b.body !== 'moon' || !model.sun || b.phaseAngleDeg === undefined) {
+        light.setXYZ(i, 0, 0, 1);
+        continue;
+      }
+      enuToWorld(s.w, b.enu, R);
+      s.m.set(s.w[0], s.w[1], s.w[2]).applyMatrix4(camera.matrixWorldInverse);
+      enuToWorld(s.w, model.sun.enu, R);
+      s.sv.set(s.w[0], s.w[1], s.w[2]).applyMatrix4(camera.matrixWorldInverse).sub(s.m);
+      const mh = s.m.normalize();
+      s.sv.addScaledVector(mh, -s.sv.dot(mh));
+      const d = Math.hypot(s.sv.x, s.sv.y) || 1;
+      const ph = (b.phaseAngleDeg * Math.PI) / 180;
+      light.setXYZ(i, (s.sv.x / d) * Math.sin(ph), (s.sv.y / d) * Math.sin(ph), Math.cos(ph));
+    }
+    light.needsUpdate = true;
+  });
+  return <primitive object={points} renderOrder={4} />;
+}
+
+/** Ground: an opaque lower hemisphere in the Observer view, a translucent horizon disc in the Sphere view. */
+export function Ground({ show }: { show: boolean }) {
+  const { cam } = useView();
+  const objs = useMemo(() => {
+    const hemi = new THREE.Mesh(
+      new THREE.SphereGeometry(R * 0.97, 64, 24, 0, Math.PI * 2, Math.PI / 2, Math.PI / 2),
+      new THREE.MeshBasicMaterial({ color: COLORS.groundObserver, side: THREE.BackSide, transparent: true, depthWrite: true }),
+    );
+    hemi.renderOrder = 5;
+    const disc = new THREE.Mesh(
+      new THREE.CircleGeometry(R, 128).rotateX(-Math.PI / 2),
+      new THREE.MeshBasicMaterial({ color: COLORS.groundSphere, side: THREE.DoubleSide, transparent: true, opacity: 0.35, depthWrite: false }),
+    );
+    disc.renderOrder = 0;
+    const observer = new THREE.Group();
+    const body = new THREE.Mesh(new THREE.ConeGeometry(2.2, 7, 16).translate(0, 3.5, 0), new THREE.MeshBasicMaterial({ color: '#f1f5f9' }));
+    const head = new THREE.Mesh(new THREE.SphereGeometry(1.5, 16, 12).translate(0, 8.2, 0), new THREE.MeshBasicMaterial({ color: '#f1f5f9' }));
+    observer.add(body, head);
+    return { hemi, disc, observer };
+  }, []);
+  useEffect(() => () => {
+    for (const o of [objs.hemi, objs.disc]) {
+      o.geometry.dispose();
+      (o.material as THREE.Material).dispose();
+    }
+  }, [objs]);
+  useFrame(() => {
+    const t = cam.t;
+    const hm = objs.hemi.material as THREE.MeshBasicMaterial;
+    hm.opacity = 1 - t;
+    objs.hemi.visible = show && t < 0.999;
+    hm.depthWrite = t < 0.5;
+    (objs.disc.material as THREE.MeshBasicMaterial).opacity = 0.35 * t;
+    objs.disc.visible = show && t > 0.001;
+    objs.observer.visible = t > 0.05;
+    objs.observer.scale.setScalar(Math.max(0.001, t));
+  });
+  return (
+    <>
+      <primitive object={objs.hemi} />
+      <primitive object={objs.disc} />
+      <primitive object={objs.observer} />
+    </>
+  );
+}
+
+/** Sphere view: the axis through the celestial poles and the zenith–nadir line. */
+export function Axes() {
+  const { model, cam } = useView();
+  const objs = useMemo(() => {
+    const polar = new PolyLine(patternLineMaterial(COLORS.axis, 2, []), 2);
+    const vertical = new PolyLine(patternLineMaterial(COLORS.referencePoint, 1.4, [4, 4]), 2);
+    return { polar, vertical };
+  }, []);
+  useEffect(() => () => {
+    objs.polar.dispose();
+    objs.vertical.dispose();
+  }, [objs]);
+  const last = useRef(-1);
+  const w = useMemo(() => new Float32Array(6), []);
+  useFrame(({ size, camera }) => {
+    const vis = cam.t > 0.02;
+    objs.polar.line.visible = objs.vertical.line.visible = vis;
+    objs.polar.mat.opacity = objs.vertical.mat.opacity = cam.t;
+    objs.polar.mat.transparent = objs.vertical.mat.transparent = true;
+    objs.polar.mat.resolution.set(size.width, size.height);
+    objs.vertical.mat.resolution.set(size.width, size.height);
+    objs.vertical.mat.dashScale = pxPerUnit(camera, size.height, cam.t);
+    if (last.current === model.version) return;
+    last.current = model.version;
+    const ncp = model.refs.find((r) => r.key === 'ncp');
+    if (ncp) {
+      const e = enuToWorld([0, 0, 0], ncp.enu, R * 1.25);
+      w.set([-e[0], -e[1], -e[2], e[0], e[1], e[2]]);
+      objs.polar.set(w);
+    }
+    w.set([0, -R * 1.15, 0, 0, R * 1.15, 0]);
+    objs.vertical.set(w);
+  });
+  return (
+    <>
+      <primitive object={objs.polar.line} />
+      <primitive object={objs.vertical.line} />
+    </>
+  );
+}
+
+/**
+ * The pointing envelope: forbidden directions tinted (evaluated by the engine on an alt-az mesh), the
+ * horizon mask as a skyline with the blocked band filled, Sun and Moon keep-out rings.
+ */
+export function Envelope() {
+  const { model, clock } = useView();
+  const NA = 120, NB = 45; // 3° in azimuth, 2° in altitude
+  const objs = useMemo(() => {
+    const n = (NA + 1) * (NB + 1);
+    const pos = new Float32Array(n * 3);
+    const v = [0, 0, 0];
+    for (let b = 0; b <= NB; b++) {
+      for (let a = 0; a <= NA; a++) {
+        enuToWorld(v, altAzToEnu(v, (a * 360) / NA, (b * 90) / NB), R * 0.99);
+        pos.set(v, (b * (NA + 1) + a) * 3);
+      }
+    }
+    const idx: number[] = [];
+    for (let b = 0; b < NB; b++) {
+      for (let a = 0; a < NA; a++) {
+        const i = b * (NA + 1) + a;
+        idx.push(i, i + 1, i + NA + 1, i + 1, i + NA + 2, i + NA + 1);
+      }
+    }
+    const geom = new THREE.BufferGeometry();
+    geom.setAttribute('position', new THREE.BufferAttribute(pos, 3));
+    geom.setAttribute('color', new THREE.BufferAttribute(new Float32Array(n * 4), 4));
+    geom.setIndex(idx);
+    const mesh = new THREE.Mesh(geom, new THREE.MeshBasicMaterial({ vertexColors: true, transparent: true, side: THREE.DoubleSide, depthWrite: false }));
+    mesh.frustumCulled = false;
+    mesh.renderOrder = 1;
+    const maskLine = new PolyLine(patternLineMaterial(COLORS.maskEdge, 2.2, []), 361);
+    const maskBand = new THREE.Mesh(
+      new THREE.BufferGeometry().setAttribute('position', new THREE.BufferAttribute(new Float32Array(361 * 2 * 3), 3)).setIndex(
+        Array.from({ length: 360 }, (_, i) => [i * 2, i * 2 + 1, i * 2 + 2, i * 2 + 1, i * 2 + 3, i * 2 + 2]).flat(),
+      ),
+      new THREE.MeshBasicMaterial({ color: COLORS.mask, side: THREE.DoubleSide, transparent: true, opacity: 0.85 }),
+    );
+    maskBand.frustumCulled = false;
+    maskBand.renderOrder = 6;
+    const sunRing = new PolyLine(patternLineMaterial(COLORS.sunKeepOut, 2.2, [8, 5]), 97);
+    const moonRing = new PolyLine(patternLineMaterial(COLORS.moonKeepOut, 2, [8, 5]), 97);
+    return { mesh, maskLine, maskBand, sunRing, moonRing };
+  }, []);
+  useEffect(() => () => {
+    objs.mesh.geometry.dispose();
+    (objs.mesh.material as THREE.Material).dispose();
+    objs.maskLine.dispose();
+    objs.maskBand.geometry.dispose();
+    objs.sunRing.dispose();
+    objs.moonRing.dispose();
+  }, [objs]);
+  const last = useRef({ version: -1, at: 0, env: null as unknown });
+  const w = useMemo(() => new Float32Array(97 * 3), []);
+  const { cam } = useView();
+  useFrame(({ size, camera }) => {
+    // The blocked band reads as landscape in the Observer view; from outside it must not hide the sphere.
+    (objs.maskBand.material as THREE.MeshBasicMaterial).opacity = 0.85 - 0.6 * cam.t;
+    for (const pl of [objs.sunRing, objs.moonRing, objs.maskLine]) {
+      pl.mat.resolution.set(size.width, size.height);
+      pl.mat.dashScale = pxPerUnit(camera, size.height, 0);
+    }
+    const env = model.envelope;
+    objs.mesh.visible = !!env;
+    objs.maskLine.line.visible = objs.maskBand.visible = !!env?.horizonMask?.length;
+    objs.sunRing.line.visible = !!model.sunKeepOut;
+    objs.moonRing.line.visible = !!model.moonKeepOut;
+    if (!env) return;
+    const now = performance.now();
+    const L = last.current;
+    if (L.version === model.version && L.env === env) return;
+    // While time plays, re-shade at most ~4 times a second: the envelope moves slowly.
+    if (clock.playing && L.env === env && now - L.at < 250) return;
+    L.version = model.version;
+    L.env = env;
+    L.at = now;
+    const hd = { haHours: 0, decDeg: 0 };
+    const col = objs.mesh.geometry.attributes.color as THREE.BufferAttribute;
+    const arr = col.array as Float32Array;
+    const c = new THREE.Color(COLORS.forbidden);
+    const v = [0, 0, 0];
+    for (let b = 0; b <= NB; b++) {
+      for (let a = 0; a <= NA; a++) {
+        const azDeg = (a * 360) / NA, altDeg = (b * 90) / NB;
+        model.haDecOfDate(altAzToEnu(v, azDeg, altDeg), hd);
+        const ok = engine.checkEnvelope(env, { azDeg, altDeg, haHours: hd.haHours, decDeg: hd.decDeg }, model).inside;
+        const i = (b * (NA + 1) + a) * 4;
+        arr[i] = c.r;
+        arr[i + 1] = c.g;
+        arr[i + 2] = c.b;
+        arr[i + 3] = ok ? 0 : 0.2;
+      }
+    }
+    col.needsUpdate = true;
+    // Draw only the cells with a forbidden corner: far fewer fragments for the software rasteriser.
+    const idx = objs.mesh.geometry.index!;
+    const ia = idx.array as Uint32Array | Uint16Array;
+    let k = 0;
+    for (let b = 0; b < NB; b++) {
+      for (let a = 0; a < NA; a++) {
+        const i = b * (NA + 1) + a;
+        if (arr[i * 4 + 3] + arr[(i + 1) * 4 + 3] + arr[(i + NA + 1) * 4 + 3] + arr[(i + NA + 2) * 4 + 3] === 0) continue;
+        ia[k++] = i; ia[k++] = i + 1; ia[k++] = i + NA + 1;
+        ia[k++] = i + 1; ia[k++] = i + NA + 2; ia[k++] = i + NA + 1;
+      }
+    }
+    idx.needsUpdate = true;
+    objs.mesh.geometry.setDrawRange(0, k);
+    if (env.horizonMask?.length) {
+      const lineW = new Float32Array(361 * 3);
+      const band = objs.maskBand.geometry.attributes.position as THREE.BufferAttribute;
+      for (let az = 0; az <= 360; az++) {
+        const alt = engine.maskAltitude(env.horizonMask, az);
+        enuToWorld(v, altAzToEnu(v, az, alt), R * 0.985);
+        lineW.set(v, az * 3);
+        band.setXYZ(az * 2, v[0], v[1], v[2]);
+        enuToWorld(v, altAzToEnu(v, az, -0.5), R * 0.985);
+        band.setXYZ(az * 2 + 1, v[0], v[1], v[2]);
+      }
+      band.needsUpdate = true;
+      objs.maskLine.set(lineW);
+    }
+    if (model.sunKeepOut) {
+      enuListToWorld(model.sunKeepOut, R * 0.99, w);
+      objs.sunRing.set(w);
+    }
+    if (model.moonKeepOut) {
+      enuListToWorld(model.moonKeepOut, R * 0.99, w);
+      objs.moonRing.set(w);
+    }
+  });
+  return (
+    <>
+      <primitive object={objs.mesh} />
+      <primitive object={objs.maskBand} />
+      <primitive object={objs.maskLine.line} />
+      <primitive object={objs.sunRing.line} />
+      <primitive object={objs.moonRing.line} />
+    </>
+  );
+}

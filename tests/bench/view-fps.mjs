@@ -1,0 +1,158 @@
+#!/usr/bin/env node
+/**
+ * Benchmark of the sphere view (standalone): headless Chromium with SwiftShader (software WebGL, no GPU).
+ *  1. time to first frame of /sky after navigation (goal ≤ 2 s), median of 3 fresh pages;
+ *  2. frames per second while time plays, canvas 1280×720, all layers on, Observer and Sphere view
+ *     (goal ≥ 30 fps), counted with requestAnimationFrame-driven renders exposed on window.__armillaStats.
+ * Prints a table and writes tests/bench/results/view.json. Uses the built app in dist/ (builds it when
+ * missing; ARMILLA_BENCH_DIST=/path/to/dist to use another build). Usage: node tests/bench/view-fps.mjs
+ */
+import { spawn, execSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir, cpus, loadavg } from 'node:os';
+import { join, resolve } from 'node:path';
+import { chromium } from 'playwright-core';
+
+const CHROMIUM = '/usr/bin/chromium';
+const ARGS = ['--use-gl=angle', '--use-angle=swiftshader', '--enable-unsafe-swiftshader', '--no-sandbox', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
+const TIME = '2026-03-21T04:00:00Z';
+const PLAY_S = 5;
+
+const dist = resolve(process.env.ARMILLA_BENCH_DIST ?? 'dist');
+if (!existsSync(join(dist, 'server/entry.mjs'))) {
+  console.log('building the app…');
+  execSync('npx astro build', { stdio: 'inherit' });
+}
+
+const freePort = () =>
+  new Promise((res, rej) => {
+    const s = createServer();
+    s.on('error', rej);
+    s.listen(0, '127.0.0.1', () => {
+      const { port } = s.address();
+      s.close(() => res(port));
+    });
+  });
+
+const port = await freePort();
+const dir = mkdtempSync(join(tmpdir(), 'armilla-bench-view-'));
+const url = `http://127.0.0.1:${port}`;
+const server = spawn(process.execPath, [join(dist, 'server/entry.mjs')], {
+  env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: `file:${join(dir, 'bench.db')}`, PUBLIC_ORIGIN: url },
+  stdio: 'ignore',
+});
+const stop = () => {
+  if (server.exitCode === null) server.kill();
+  rmSync(dir, { recursive: true, force: true });
+};
+
+async function waitUp() {
+  const deadline = Date.now() + 30_000;
+  while (Date.now() < deadline) {
+    try {
+      const r = await fetch(`${url}/sky?time=${TIME}`);
+      if (r.ok) return;
+    } catch {
+      /* not yet */
+    }
+    await new Promise((r) => setTimeout(r, 150));
+  }
+  throw new Error('server did not start');
+}
+
+const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
+try {
+  await waitUp();
+  const browser = await chromium.launch({ executablePath: CHROMIUM, headless: true, args: ARGS });
+
+  // 1. Time to first frame.
+  const ttff = [];
+  for (let i = 0; i < 3; i++) {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 720 } });
+    const page = await ctx.newPage();
+    await page.goto(`${url}/sky?time=${TIME}`);
+    await page.waitForFunction(() => window.__armillaStats?.firstFrameAt != null, null, { timeout: 60_000 });
+    // performance.now() counts from the navigation start.
+    ttff.push(await page.evaluate(() => window.__armillaStats.firstFrameAt));
+    await ctx.close();
+  }
+
+  // 2. Frames per second while time plays, all layers on, canvas 1280×720.
+  const page = await browser.newPage({ viewport: { width: 1280, height: 720 } });
+  const errors = [];
+  page.on('pageerror', (e) => errors.push(e.message));
+  await page.goto(`${url}/sky?time=${TIME}&plan=1`);
+  await page.waitForFunction(() => (window.__armillaStats?.frames ?? 0) >= 1, null, { timeout: 60_000 });
+  await page.waitForTimeout(1000);
+  for (const box of await page.locator('[data-layer]').all()) await box.check();
+  await page.evaluate(() => {
+    const el = document.querySelector('[data-testid=sky-canvas]');
+    Object.assign(el.style, { position: 'fixed', left: '0', top: '0', width: '1280px', height: '720px', zIndex: '50' });
+  });
+  await page.selectOption('[data-testid=rate]', '3600');
+  await page.waitForFunction(() => document.querySelector('[data-testid=sky-canvas] canvas')?.width >= 1280, null, { timeout: 10_000 }).catch(() => {});
+  await page.waitForTimeout(500);
+  const size = await page.evaluate(() => {
+    const c = document.querySelector('[data-testid=sky-canvas] canvas');
+    return `${c.width}×${c.height}`;
+  });
+  const runs = [];
+  for (const view of ['observer', 'sphere', 'baseline']) {
+    if (view === 'baseline') {
+      // Environment floor: the same canvas with every layer off (what the machine gives an almost empty scene).
+      await page.evaluate(() => document.querySelectorAll('[data-layer]').forEach((el) => el.checked && el.click()));
+      await page.waitForTimeout(300);
+    }
+    if (view === 'sphere') {
+      await page.evaluate(() => document.querySelector('[data-testid=mode-sphere]').click());
+      await page.waitForTimeout(2500);
+    }
+    await page.evaluate(() => document.querySelector('[data-testid=play]').click());
+    await page.waitForTimeout(800);
+    const a = await page.evaluate(() => ({ ...window.__armillaStats, t: performance.now() }));
+    await page.waitForTimeout(PLAY_S * 1000);
+    const b = await page.evaluate(() => ({ ...window.__armillaStats, t: performance.now() }));
+    await page.evaluate(() => document.querySelector('[data-testid=play]').click());
+    const n = b.frames - a.frames;
+    const secs = (b.t - a.t) / 1000;
+    runs.push({
+      view,
+      fps: n / secs,
+      frames: n,
+      seconds: secs,
+      jsUpdateMsPerFrame: (b.updateMs - a.updateMs) / n,
+      renderCallMsPerFrame: (b.renderMs - a.renderMs) / n,
+      overlayMsPerFrame: (b.overlayMs - a.overlayMs) / n,
+    });
+    await page.waitForTimeout(300);
+  }
+  await browser.close();
+
+  const result = {
+    date: new Date().toISOString(),
+    machine: { cpus: cpus().length, loadavg1: loadavg()[0] },
+    renderer: 'headless Chromium, SwiftShader (software WebGL)',
+    canvas: size,
+    timeToFirstFrameMs: { runs: ttff, median: median(ttff), goal: 2000 },
+    playing: runs.map((r) => ({ ...r, goal: r.view === 'baseline' ? null : 30 })),
+    pageErrors: errors,
+  };
+  const f1 = (x) => x.toFixed(1);
+  console.log('\nSphere view benchmark (headless Chromium + SwiftShader)');
+  console.log(`machine: ${result.machine.cpus} cores, load ${f1(result.machine.loadavg1)}; canvas ${size}`);
+  console.log('| measure | value | goal |');
+  console.log('| --- | --- | --- |');
+  console.log(`| time to first frame of /sky (median of 3) | ${Math.round(result.timeToFirstFrameMs.median)} ms | ≤ 2000 ms |`);
+  for (const r of runs) {
+    const what = r.view === 'baseline' ? 'baseline: all layers off (environment floor)' : `${r.view} view, all layers`;
+    console.log(`| fps while time plays, ${what} | ${f1(r.fps)} fps (JS ${f1(r.jsUpdateMsPerFrame)} + render call ${f1(r.renderCallMsPerFrame)} + labels ${f1(r.overlayMsPerFrame)} ms/frame) | ≥ 30 fps |`);
+  }
+  if (errors.length) console.log('page errors:', errors);
+  mkdirSync('tests/bench/results', { recursive: true });
+  writeFileSync('tests/bench/results/view.json', JSON.stringify(result, null, 2) + '\n');
+  console.log('written tests/bench/results/view.json');
+} finally {
+  stop();
+}
