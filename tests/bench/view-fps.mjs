@@ -92,11 +92,12 @@ try {
     Object.assign(el.style, { position: 'fixed', left: '0', top: '0', width: '1280px', height: '720px', zIndex: '50' });
   });
   await page.selectOption('[data-testid=rate]', '3600');
-  await page.waitForFunction(() => document.querySelector('[data-testid=sky-canvas] canvas')?.width >= 1280, null, { timeout: 10_000 }).catch(() => {});
+  await page.waitForFunction(() => document.querySelector('[data-testid=sky-canvas] canvas')?.clientWidth >= 1280, null, { timeout: 10_000 }).catch(() => {});
   await page.waitForTimeout(500);
   const size = await page.evaluate(() => {
     const c = document.querySelector('[data-testid=sky-canvas] canvas');
-    return `${c.width}×${c.height}`;
+    // CSS size on the page; under a software renderer the WebGL backing store is smaller (see SkyCanvas.tsx).
+    return `${c.clientWidth}×${c.clientHeight} CSS px (WebGL backing store ${c.width}×${c.height})`;
   });
   const runs = [];
   for (const view of ['observer', 'sphere', 'baseline']) {

@@ -21,7 +21,7 @@ const TRANSITION_S = 1.4;
 
 declare global {
   interface Window {
-    __armillaStats?: { frames: number; firstFrameAt: number | null; startedAt: number; lastFrameAt: number; updateMs: number; renderMs: number; overlayMs: number };
+    __armillaStats?: { frames: number; firstFrameAt: number | null; startedAt: number; lastFrameAt: number; updateMs: number; renderMs: number; overlayMs: number; drawCalls?: number; triangles?: number };
   }
 }
 
@@ -341,7 +341,7 @@ function Renderer() {
     }
     const ov = hud.overlay;
     if (ov) {
-      const dpr = gl.getPixelRatio();
+      const dpr = Math.min(2, Math.max(1, window.devicePixelRatio || 1)); // labels stay sharp when the WebGL canvas renders at a reduced ratio
       const w = Math.round(size.width * dpr), h = Math.round(size.height * dpr);
       if (ov.width !== w || ov.height !== h) {
         ov.width = w;
@@ -359,6 +359,8 @@ function Renderer() {
       st.renderMs += t1 - t0;
       st.overlayMs += performance.now() - t1;
       st.frames++;
+      st.drawCalls = gl.info.render.calls;
+      st.triangles = gl.info.render.triangles;
       st.lastFrameAt = performance.now();
       st.firstFrameAt ??= st.lastFrameAt;
     }
@@ -414,6 +416,22 @@ function wantAntialias(): boolean {
   return aaChoice;
 }
 
+/** True when WebGL runs on a software rasteriser (SwiftShader, llvmpipe): no GPU on this machine. */
+function softwareRenderer(): boolean {
+  return wantAntialias() === false && new URLSearchParams(location.search).get('aa') === null;
+}
+
+/**
+ * On a software rasteriser every pixel costs CPU time: render the canvas at a reduced resolution and let
+ * the browser scale it up (lines stay sharp enough; labels are drawn by the overlay at full resolution).
+ * `?dpr=` in the page URL overrides.
+ */
+function softwareDpr(): number {
+  const q = Number(new URLSearchParams(location.search).get('dpr'));
+  return Number.isFinite(q) && q > 0 && q <= 2 ? q : SOFTWARE_DPR;
+}
+const SOFTWARE_DPR = 0.5;
+
 export default function SkyCanvas({ handles, onPickPoint }: SkyCanvasProps) {
   const invalidateRef = useRef<(() => void) | null>(null);
   useEffect(() => {
@@ -425,8 +443,8 @@ export default function SkyCanvas({ handles, onPickPoint }: SkyCanvasProps) {
   return (
     <Canvas
       frameloop="demand"
-      dpr={[1, 2]}
-      gl={{ antialias: wantAntialias(), alpha: false, preserveDrawingBuffer: false }}
+      dpr={softwareRenderer() ? softwareDpr() : [1, 2]}
+      gl={{ antialias: !softwareRenderer() && wantAntialias(), alpha: false, preserveDrawingBuffer: false }}
       camera={{ fov: handles.cam.fov, near: 0.1, far: 2000, position: [0, 0, 0] }}
       onCreated={(s) => {
         s.gl.setClearColor('#05070d');
