@@ -61,8 +61,26 @@ export async function writeTx<T>(db: DbOrTx, fn: (tx: Tx) => Promise<T>): Promis
 // ---------------------------------------------------------------------------------------------
 // Reading
 
+/**
+ * Validated documents by `id:version`. A (scene, version) pair never changes content — every write
+ * raises the version — so the cache cannot go stale, and it holds nothing that another instance
+ * would need to see. It spares the hot read paths (shared links, presenter streams) a full zod pass.
+ */
+const DOC_CACHE_MAX = 500;
+const docCache = new Map<string, SceneDoc>();
+
 /** The stored document of a row, validated on the way out (a bad row is a bug: it throws → 500). */
 export function docOf(row: SceneRow): SceneDoc {
+  const key = `${row.id}:${row.version}`;
+  const hit = docCache.get(key);
+  if (hit) return structuredClone(hit);
+  const doc = parseDoc(row);
+  if (docCache.size >= DOC_CACHE_MAX) docCache.delete(docCache.keys().next().value!);
+  docCache.set(key, doc);
+  return structuredClone(doc);
+}
+
+function parseDoc(row: SceneRow): SceneDoc {
   return sceneDocSchema.parse({
     title: row.title,
     description: row.description,
