@@ -5,30 +5,19 @@
  */
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterAll, beforeAll, expect } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { startServer, type TestServer } from '../integration/helpers/server';
+import { expect } from 'vitest';
 import { DEMO } from '../integration/helpers/client';
-import { browserTest, launch, newPage, OUTPUT_DIR, screenshot } from './helpers/browser';
+import { browserTest, e2eWorld, newPage, OUTPUT_DIR, screenshot } from './helpers/browser';
 
 /** Sirius, ICRS α 06h45m08.91728s δ −16°42′58.0171″; from φ 51.4769°, λ 0° at 2024-01-15T22:00:00Z its
  * standard-refraction altitude is 20.279789° at azimuth 162.938748° (ERFA atco13; reference-values.md E1). */
 const SIRIUS = { ra: (6 + 45 / 60 + 8.91728 / 3600) * 15, dec: -(16 + 42 / 60 + 58.0171 / 3600), alt: 20.279789, az: 162.938748 };
 
-let s: TestServer;
-let browser: Browser | undefined;
-
-beforeAll(async () => {
-  s = await startServer();
-});
-afterAll(async () => {
-  await browser?.close();
-  await s?.stop();
-});
+const world = e2eWorld();
 
 browserTest('the handout renders, places Sirius by r = (90° − alt)/90° · R, and prints on A4 and Letter', async () => {
-  browser = await launch();
-  const { page, context, realErrors, cspViolations } = await newPage(browser, { baseURL: s.url, viewport: { width: 1100, height: 1400 } });
+  const browser = await world.browser();
+  const { page, context, realErrors, cspViolations } = await newPage(browser, { baseURL: world.url, viewport: { width: 1100, height: 1400 } });
   const signIn = await context.request.post('/api/auth/sign-in', { data: { email: DEMO.editor, password: DEMO.password } });
   expect(signIn.status()).toBe(200);
   const me = await (await context.request.get('/api/me')).json();

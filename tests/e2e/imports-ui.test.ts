@@ -4,31 +4,11 @@
  * one (the list grows, autosave carries on without a conflict), imports a horizon mask after checking its
  * skyline, and finds the export links. Screenshots go to tests/e2e/output/.
  */
-import { afterAll, beforeAll, expect } from 'vitest';
-import { chromium, type Browser } from 'playwright-core';
-import { startServer, type TestServer } from '../integration/helpers/server';
+import { expect } from 'vitest';
 import { DEMO } from '../integration/helpers/client';
-import { browserTest, CHROMIUM_PATH, chromiumAvailable, newPage, screenshot } from './helpers/browser';
+import { browserTest, e2eWorld, newPage, screenshot } from './helpers/browser';
 
-let s: TestServer;
-let browser: Browser | undefined;
-
-beforeAll(async () => {
-  s = await startServer();
-});
-afterAll(async () => {
-  await browser?.close();
-  await s?.stop();
-});
-
-async function launchGl(): Promise<Browser> {
-  if (!chromiumAvailable) throw new Error(`${CHROMIUM_PATH} is missing (browser tests fail under CI=true)`);
-  return chromium.launch({
-    executablePath: CHROMIUM_PATH,
-    headless: true,
-    args: ['--use-gl=angle', '--use-angle=swiftshader', '--enable-unsafe-swiftshader', '--no-sandbox', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-  });
-}
+const world = e2eWorld();
 
 const csv = (name: string, text: string) => ({ name, mimeType: 'text/csv', buffer: Buffer.from(text, 'utf8') });
 
@@ -39,8 +19,8 @@ const GOOD = 'name,ra,dec,notes\nTest field P-1 (invented),14 15 39.7,+19 10 57,
 const HORIZON = 'azimuth,elevation\n0,6\n90,4\n180,8\n250,26.57\n290,26.57\n330,10\n';
 
 browserTest('editor previews and imports a target list, imports a horizon mask with a skyline preview, finds the exports', async () => {
-  browser = await launchGl();
-  const { page, errors } = await newPage(browser, { baseURL: s.url, viewport: { width: 1440, height: 1000 } });
+  const browser = await world.browser();
+  const { page, errors } = await newPage(browser, { baseURL: world.url, viewport: { width: 1440, height: 1000 } });
 
   await page.goto('/sign-in');
   await page.getByLabel('E-mail').fill(DEMO.editor);

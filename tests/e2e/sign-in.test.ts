@@ -1,24 +1,13 @@
 /** Signing in through the UI as the demo owner reaches the dashboard (islands hydrate under our CSP). */
-import { afterAll, beforeAll, expect } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { startServer, type TestServer } from '../integration/helpers/server';
+import { expect } from 'vitest';
 import { DEMO } from '../integration/helpers/client';
-import { browserTest, launch, newPage, screenshot } from './helpers/browser';
+import { browserTest, e2eWorld, newPage, screenshot } from './helpers/browser';
 
-let s: TestServer;
-let browser: Browser | undefined;
-
-beforeAll(async () => {
-  s = await startServer();
-});
-afterAll(async () => {
-  await browser?.close();
-  await s?.stop();
-});
+const world = e2eWorld();
 
 browserTest('a signed-out visit to /dashboard lands on sign-in; signing in as the demo owner reaches the dashboard', async () => {
-  browser = await launch();
-  const { page, context, realErrors, cspViolations } = await newPage(browser, { baseURL: s.url });
+  const browser = await world.browser();
+  const { page, context, realErrors, cspViolations } = await newPage(browser, { baseURL: world.url });
 
   await page.goto('/dashboard');
   expect(new URL(page.url()).pathname).toBe('/sign-in');
@@ -48,8 +37,8 @@ browserTest('a signed-out visit to /dashboard lands on sign-in; signing in as th
 });
 
 browserTest('keyboard only: the skip link and the sign-in form are reachable with Tab, and focus is visible', async () => {
-  browser ??= await launch();
-  const { page } = await newPage(browser, { baseURL: s.url, viewport: { width: 390, height: 844 } });
+  const browser = await world.browser();
+  const { page } = await newPage(browser, { baseURL: world.url, viewport: { width: 390, height: 844 } });
   await page.goto('/sign-in');
   await page.keyboard.press('Tab');
   const first = await page.evaluate(() => document.activeElement?.textContent?.trim());

@@ -3,31 +3,12 @@
  * scene with a pin and a step, shares a reviewer link; a guest opens it and comments on a point of the
  * sky; the editor sees the comment (and its marker) and resolves it. Screenshots go to tests/e2e/output/.
  */
-import { afterAll, beforeAll, expect } from 'vitest';
-import { chromium, type Browser, type Page } from 'playwright-core';
-import { startServer, type TestServer } from '../integration/helpers/server';
+import { expect } from 'vitest';
+import type { Page } from 'playwright-core';
 import { DEMO } from '../integration/helpers/client';
-import { browserTest, CHROMIUM_PATH, chromiumAvailable, newPage, screenshot } from './helpers/browser';
+import { browserTest, e2eWorld, newPage, screenshot } from './helpers/browser';
 
-let s: TestServer;
-let browser: Browser | undefined;
-
-beforeAll(async () => {
-  s = await startServer();
-});
-afterAll(async () => {
-  await browser?.close();
-  await s?.stop();
-});
-
-async function launchGl(): Promise<Browser> {
-  if (!chromiumAvailable) throw new Error(`${CHROMIUM_PATH} is missing (browser tests fail under CI=true)`);
-  return chromium.launch({
-    executablePath: CHROMIUM_PATH,
-    headless: true,
-    args: ['--use-gl=angle', '--use-angle=swiftshader', '--enable-unsafe-swiftshader', '--no-sandbox', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-  });
-}
+const world = e2eWorld();
 
 /** Clicks empty sky (not a star) until `done` appears: picks land on the first click that misses every object. */
 async function clickSky(page: Page, done: () => Promise<boolean>) {
@@ -46,8 +27,8 @@ async function clickSky(page: Page, done: () => Promise<boolean>) {
 }
 
 browserTest('editor builds and shares a scene; a guest reviewer comments on the sky; the editor resolves it', async () => {
-  browser = await launchGl();
-  const editor = await newPage(browser, { baseURL: s.url, viewport: { width: 1440, height: 1000 } });
+  const browser = await world.browser();
+  const editor = await newPage(browser, { baseURL: world.url, viewport: { width: 1440, height: 1000 } });
   const { page } = editor;
 
   // Sign in.
@@ -96,7 +77,7 @@ browserTest('editor builds and shares a scene; a guest reviewer comments on the 
   expect(link).toMatch(/\/s\/[A-Za-z0-9_-]{20,}$/);
 
   // A guest opens the link and comments on a point of the sky.
-  const guest = await newPage(browser, { baseURL: s.url, viewport: { width: 1440, height: 1000 } });
+  const guest = await newPage(browser, { baseURL: world.url, viewport: { width: 1440, height: 1000 } });
   await guest.page.goto(new URL(link).pathname);
   try {
     await guest.page.getByRole('heading', { name: 'Workflow test scene' }).waitFor();

@@ -6,7 +6,8 @@
 import { existsSync, mkdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { test } from 'vitest';
+import { afterAll, beforeAll, test } from 'vitest';
+import { startServer, type StartOptions, type TestServer } from '../../integration/helpers/server';
 
 export const CHROMIUM_PATH = '/usr/bin/chromium';
 export const OUTPUT_DIR = resolve('tests/e2e/output');
@@ -74,4 +75,30 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const path = join(OUTPUT_DIR, name.endsWith('.png') ? name : `${name}.png`);
   await page.screenshot({ path, fullPage: true });
   return path;
+}
+
+/**
+ * One test file's world: the built app on its own port and database (started before the file's tests),
+ * and one browser launched on first use; both are closed after the file.
+ */
+export function e2eWorld(opts: StartOptions = {}) {
+  let server: TestServer | undefined;
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    server = await startServer(opts);
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+  return {
+    get server(): TestServer {
+      if (!server) throw new Error('the test server has not started');
+      return server;
+    },
+    get url(): string {
+      return this.server.url;
+    },
+    browser: async (): Promise<Browser> => (browser ??= await launch()),
+  };
 }
