@@ -96,6 +96,22 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
   useEffect(() => {
     if (scene.layers) store.set({ layers: { ...DEFAULT_LAYERS, ...scene.layers } as Required<Layers> });
   }, [JSON.stringify(scene.layers ?? null)]);
+  // A step, a restored version or a followed presenter may bring its own camera.
+  const cameraKey = JSON.stringify(scene.camera ?? null);
+  const firstCamera = useRef(true);
+  useEffect(() => {
+    if (firstCamera.current) {
+      firstCamera.current = false; // the initial camera is already in `cam` and the store
+      return;
+    }
+    const c = scene.camera;
+    if (!c) return;
+    if (c.azDeg !== undefined) cam.az = c.azDeg;
+    if (c.altDeg !== undefined) cam.alt = c.altDeg;
+    if (c.fovDeg !== undefined) cam.fov = c.fovDeg;
+    if (c.mode && c.mode !== store.get().mode) store.set({ mode: c.mode });
+    hud.invalidate?.();
+  }, [cameraKey]);
   useEffect(() => {
     model.setPlan(scene.envelope ?? null, scene.targets ?? []);
     model.update(clock.ms, true);
