@@ -406,6 +406,7 @@ export function SelectionCard() {
         ['Next set', fmt(after('set'))],
         ...extra,
       ];
+      if (selected.kind === 'star') rows.push(['Catalogue', 'BSC5 J2000 place, proper motion not applied (most bright stars move < 1″ a year)']);
       if (ev.note) rows.push(['Events', ev.note]);
       if (inside !== null) rows.push(['Envelope', inside ? 'inside' : `outside: ${breaks.join('; ')}`]);
       if (sunSep !== null) rows.push(['From the Sun', formatDeg(sunSep, 1)]);
