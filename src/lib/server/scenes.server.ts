@@ -62,16 +62,19 @@ export async function writeTx<T>(db: DbOrTx, fn: (tx: Tx) => Promise<T>): Promis
 // Reading
 
 /**
- * Validated documents by `id:version`. A (scene, version) pair never changes content — every write
- * raises the version — so the cache cannot go stale, and it holds nothing that another instance
- * would need to see. It spares the hot read paths (shared links, presenter streams) a full zod pass.
+ * Validated documents by `id:version:envelopeId`. Every edit of a scene raises its version; the one
+ * write that changes a document without doing so — deleting a team envelope, which copies its limits
+ * inline and clears `envelopeId` (envelopes.ts) — changes `envelopeId`, so the key changes with it.
+ * A new write path that touches scene documents must raise the version (or extend this key).
+ * The cache holds nothing another instance needs to see; it spares the hot read paths (shared links,
+ * presenter streams) a full zod pass.
  */
 const DOC_CACHE_MAX = 500;
 const docCache = new Map<string, SceneDoc>();
 
 /** The stored document of a row, validated on the way out (a bad row is a bug: it throws → 500). */
 export function docOf(row: SceneRow): SceneDoc {
-  const key = `${row.id}:${row.version}`;
+  const key = `${row.id}:${row.version}:${row.envelopeId ?? ''}`;
   const hit = docCache.get(key);
   if (hit) return structuredClone(hit);
   const doc = parseDoc(row);
