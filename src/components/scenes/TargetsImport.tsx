@@ -59,26 +59,31 @@ export function TargetsImport({ sceneId, beforeImport, onImported }: { sceneId: 
     if (input.current) input.current.value = '';
   };
 
-  const check = async (f: File) => {
-    setFile(f);
-    setPreview(null);
-    setError(null);
-    setRowErrors([]);
-    setDone(null);
-    if (f.size > MAX_UPLOAD_BYTES) return setError(tooBigText(5));
-    setBusy('preview');
+  /**
+   * Sends the file to `route` (preview or import) after saving pending edits. Returns the parsed body,
+   * or null after showing the error (413, row errors, anything else).
+   */
+  const send = async <T,>(route: 'preview' | 'import', f: File): Promise<T | null> => {
+    await beforeImport?.();
+    const r = await postFile(`/api/scenes/${encodeURIComponent(sceneId)}/targets/${route}`, f);
+    if (r.status === 413) {
+      setError(tooBigText(5));
+      return null;
+    }
+    if (!r.ok) {
+      const e = await readError(r);
+      setError(errorText(e));
+      setRowErrors(((e.body as { rows?: RowErr[] })?.rows ?? []) as RowErr[]);
+      return null;
+    }
+    return (await r.json()) as T;
+  };
+
+  /** Runs one step with the busy state set and any thrown error shown. */
+  const withBusy = async (what: 'preview' | 'import', fn: () => Promise<void>) => {
+    setBusy(what);
     try {
-      await beforeImport?.();
-      const r = await postFile(`/api/scenes/${encodeURIComponent(sceneId)}/targets/preview`, f);
-      if (r.status === 413) return setError(tooBigText(5));
-      if (!r.ok) {
-        const e = await readError(r);
-        setError(errorText(e));
-        setRowErrors(((e.body as { rows?: RowErr[] })?.rows ?? []) as RowErr[]);
-        return;
-      }
-      setPreview((await r.json()) as Preview);
-      requestAnimationFrame(() => heading.current?.focus());
+      await fn();
     } catch (e) {
       setError(errorText(e));
     } finally {
@@ -86,30 +91,32 @@ export function TargetsImport({ sceneId, beforeImport, onImported }: { sceneId: 
     }
   };
 
-  const doImport = async () => {
-    if (!file || !preview?.valid) return;
-    setBusy('import');
+  const check = async (f: File) => {
+    setFile(f);
+    setPreview(null);
     setError(null);
     setRowErrors([]);
-    try {
-      await beforeImport?.();
-      const r = await postFile(`/api/scenes/${encodeURIComponent(sceneId)}/targets/import`, file);
-      if (r.status === 413) return setError(tooBigText(5));
-      if (!r.ok) {
-        const e = await readError(r);
-        setError(errorText(e));
-        setRowErrors(((e.body as { rows?: RowErr[] })?.rows ?? []) as RowErr[]);
-        return;
-      }
-      const out = (await r.json()) as { added: number };
+    setDone(null);
+    if (f.size > MAX_UPLOAD_BYTES) return setError(tooBigText(5));
+    await withBusy('preview', async () => {
+      const p = await send<Preview>('preview', f);
+      if (!p) return;
+      setPreview(p);
+      requestAnimationFrame(() => heading.current?.focus());
+    });
+  };
+
+  const doImport = async () => {
+    if (!file || !preview?.valid) return;
+    setError(null);
+    setRowErrors([]);
+    await withBusy('import', async () => {
+      const out = await send<{ added: number }>('import', file);
+      if (!out) return;
       await onImported(out.added);
       reset();
       setDone(`Imported ${out.added} target${out.added === 1 ? '' : 's'}.`);
-    } catch (e) {
-      setError(errorText(e));
-    } finally {
-      setBusy(null);
-    }
+    });
   };
 
   const good = preview ? preview.rows.filter((r) => r.errors.length === 0).length : 0;

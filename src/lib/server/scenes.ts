@@ -3,6 +3,7 @@
  * Built from the scene document in src/lib/scenes/scene.ts; no I/O here (scenes.server.ts does that).
  */
 import { z, type AnyZodObject, type ZodTypeAny } from 'zod';
+import { isPng } from '../png';
 import {
   cameraSchema,
   isoUtc,
@@ -86,13 +87,11 @@ export type SceneDoc = z.infer<typeof sceneDocSchema>;
 
 const idRef = z.string().trim().min(1).max(64);
 
-const sceneCreateShape = z.object({
-  teamId: idRef,
+/** The document fields a create or a patch may carry, all optional. */
+const docFields = {
   title: titleSchema.optional(),
   description: descriptionSchema.optional(),
   site: siteSchema.optional(),
-  /** Take the site from one of the team's saved sites. */
-  siteId: idRef.optional(),
   time: isoUtc.optional(),
   layers: layersSchema.optional(),
   camera: cameraSchema.optional(),
@@ -101,6 +100,13 @@ const sceneCreateShape = z.object({
   targets: targetsSchema.optional(),
   pins: pinsSchema.optional(),
   steps: stepsSchema.optional(),
+};
+
+const sceneCreateShape = z.object({
+  teamId: idRef,
+  ...docFields,
+  /** Take the site from one of the team's saved sites. */
+  siteId: idRef.optional(),
   /** Duplicate this scene; fields given here override the copy. */
   fromSceneId: idRef.optional(),
 });
@@ -126,14 +132,13 @@ export type SceneCreateBody = z.infer<typeof sceneCreateShape>;
 
 /** PNG thumbnails arrive as a data URL; ≤ 512 KiB decoded. */
 export const MAX_THUMBNAIL_BYTES = 512 * 1024;
-const PNG_MAGIC = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 export const thumbnailSchema = z
   .string()
   .max(Math.ceil((MAX_THUMBNAIL_BYTES * 4) / 3) + 64)
   .transform((s, ctx) => {
     const m = /^data:image\/png;base64,([A-Za-z0-9+/]+={0,2})$/.exec(s);
     const bytes = m ? Buffer.from(m[1], 'base64') : null;
-    if (!bytes || bytes.length > MAX_THUMBNAIL_BYTES || !PNG_MAGIC.every((b, i) => bytes[i] === b)) {
+    if (!bytes || bytes.length > MAX_THUMBNAIL_BYTES || !isPng(bytes)) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'must be a PNG data URL (data:image/png;base64,…) of at most 512 KiB' });
       return z.NEVER;
     }
@@ -144,17 +149,7 @@ const readOnlyEcho = z.unknown().optional();
 
 const scenePatchShape = z.object({
   version: z.number({ required_error: 'is required' }).int().min(1),
-  title: titleSchema.optional(),
-  description: descriptionSchema.optional(),
-  site: siteSchema.optional(),
-  time: isoUtc.optional(),
-  layers: layersSchema.optional(),
-  camera: cameraSchema.optional(),
-  envelopeId: idRef.nullable().optional(),
-  envelope: envelopeSchema.nullable().optional(),
-  targets: targetsSchema.optional(),
-  pins: pinsSchema.optional(),
-  steps: stepsSchema.optional(),
+  ...docFields,
   thumbnail: thumbnailSchema.nullable().optional(),
   // A client may send back the scene it fetched; server-kept fields are ignored.
   id: readOnlyEcho,
