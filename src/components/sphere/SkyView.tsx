@@ -303,7 +303,7 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
               <span className="text-[11px] text-slate-400">{scene.site.name} · {scene.site.lat.toFixed(3)}°, {scene.site.lon.toFixed(3)}° · {Math.round(scene.site.height ?? 0)} m</span>
             </div>
             <div
-              className="relative w-full overflow-hidden rounded border border-slate-700 bg-[#05070d] focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400"
+              className="relative w-full border border-slate-700 bg-[#05070d] focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400"
               style={{ height }}
               tabIndex={0}
               role="application"

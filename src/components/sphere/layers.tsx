@@ -5,8 +5,6 @@
 import { useFrame } from '@react-three/fiber';
 import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
-import { Line2 } from 'three/examples/jsm/lines/Line2.js';
-import { LineGeometry } from 'three/examples/jsm/lines/LineGeometry.js';
 import type { LineMaterial } from 'three/examples/jsm/lines/LineMaterial.js';
 import { useView } from './context';
 import * as engine from './engine';
@@ -24,43 +22,93 @@ function pxPerUnit(camera: THREE.Camera, height: number, t: number): number {
   return height / (2 * dist * Math.tan((cam.fov * Math.PI) / 360));
 }
 
-/** A fat polyline whose vertices are rewritten in place (no allocation after creation). */
+/**
+ * LineSegmentsGeometry's quad: corners (x = side, y = which end; y outside 0…1 = round cap) and triangles.
+ * Without caps a segment is 4 corners and 2 triangles: half the vertex work, and on a smooth ring the
+ * joints cannot be seen. The horizon mask, whose skyline has corners, keeps its round caps.
+ */
+const QUAD = {
+  caps: {
+    pos: [-1, 2, 0, 1, 2, 0, -1, 1, 0, 1, 1, 0, -1, 0, 0, 1, 0, 0, -1, -1, 0, 1, -1, 0],
+    uv: [-1, 2, 1, 2, -1, 1, 1, 1, -1, -1, 1, -1, -1, -2, 1, -2],
+    index: [0, 2, 1, 2, 3, 1, 2, 4, 3, 4, 5, 3, 4, 6, 5, 6, 7, 5],
+  },
+  plain: {
+    pos: [-1, 1, 0, 1, 1, 0, -1, 0, 0, 1, 0, 0],
+    uv: [-1, 1, 1, 1, -1, -1, 1, -1],
+    index: [0, 2, 1, 2, 3, 1],
+  },
+};
+
+/**
+ * A fat polyline drawn with three's LineMaterial (screen-space width, our dash patterns), but as a plain,
+ * non-instanced mesh: each segment's quad carries its two end points as ordinary vertex attributes.
+ * Line2 draws one instance per segment; a plain mesh is the same picture with less work for a software
+ * rasteriser (SwiftShader, no GPU). Vertices are rewritten in place (no allocation after creation).
+ */
 class PolyLine {
-  geom = new LineGeometry();
-  line: Line2;
+  geom = new THREE.BufferGeometry();
+  line: THREE.Mesh;
   n: number;
-  constructor(public mat: LineMaterial, points: number) {
+  private k: number;
+  private start: THREE.BufferAttribute;
+  private end: THREE.BufferAttribute;
+  private dStart: THREE.BufferAttribute;
+  private dEnd: THREE.BufferAttribute;
+  private buf = new THREE.Vector2();
+  constructor(public mat: LineMaterial, points: number, caps = false) {
     this.n = points;
-    this.geom.setPositions(new Float32Array(points * 3));
-    this.line = new Line2(this.geom, mat);
-    this.line.frustumCulled = false;
-  }
-  /** Writes a polyline of world points into the segment buffer; dash distances are updated in place. */
-  set(world: ArrayLike<number>) {
-    const attr = this.geom.attributes.instanceStart as THREE.InterleavedBufferAttribute;
-    const arr = attr.data.array as Float32Array;
-    const segs = this.n - 1;
+    const q = caps ? QUAD.caps : QUAD.plain;
+    const k = (this.k = q.pos.length / 3);
+    const segs = Math.max(1, points - 1);
+    const pos = new Float32Array(segs * k * 3);
+    const uv = new Float32Array(segs * k * 2);
+    const index = new (segs * k > 65535 ? Uint32Array : Uint16Array)(segs * q.index.length);
     for (let i = 0; i < segs; i++) {
-      for (let k = 0; k < 3; k++) {
-        arr[i * 6 + k] = world[i * 3 + k];
-        arr[i * 6 + 3 + k] = world[(i + 1) * 3 + k];
-      }
+      pos.set(q.pos, i * k * 3);
+      uv.set(q.uv, i * k * 2);
+      for (let j = 0; j < q.index.length; j++) index[i * q.index.length + j] = q.index[j] + i * k;
     }
-    attr.data.needsUpdate = true;
-    let dAttr = this.geom.attributes.instanceDistanceStart as THREE.InterleavedBufferAttribute | undefined;
-    if (!dAttr) {
-      this.line.computeLineDistances();
-      dAttr = this.geom.attributes.instanceDistanceStart as THREE.InterleavedBufferAttribute;
-    }
-    const d = dAttr.data.array as Float32Array;
+    this.geom.setIndex(new THREE.BufferAttribute(index, 1));
+    this.geom.setAttribute('position', new THREE.BufferAttribute(pos, 3));
+    this.geom.setAttribute('uv', new THREE.BufferAttribute(uv, 2));
+    this.start = new THREE.BufferAttribute(new Float32Array(segs * k * 3), 3);
+    this.end = new THREE.BufferAttribute(new Float32Array(segs * k * 3), 3);
+    this.dStart = new THREE.BufferAttribute(new Float32Array(segs * k), 1);
+    this.dEnd = new THREE.BufferAttribute(new Float32Array(segs * k), 1);
+    for (const a of [this.start, this.end, this.dStart, this.dEnd]) a.setUsage(THREE.DynamicDrawUsage);
+    this.geom.setAttribute('instanceStart', this.start);
+    this.geom.setAttribute('instanceEnd', this.end);
+    this.geom.setAttribute('instanceDistanceStart', this.dStart);
+    this.geom.setAttribute('instanceDistanceEnd', this.dEnd);
+    this.line = new THREE.Mesh(this.geom, mat);
+    this.line.frustumCulled = false;
+    // LineMaterial's width is in pixels of the drawing buffer (as Line2 sets it before each render).
+    this.line.onBeforeRender = (renderer) => {
+      renderer.getDrawingBufferSize(this.buf);
+      mat.resolution.set(this.buf.x, this.buf.y);
+    };
+  }
+  /** Writes a polyline of world points into the segment buffers, with the dash distances. */
+  set(world: ArrayLike<number>) {
+    const s = this.start.array as Float32Array, e = this.end.array as Float32Array;
+    const ds = this.dStart.array as Float32Array, de = this.dEnd.array as Float32Array;
+    const segs = this.n - 1;
     let acc = 0;
     for (let i = 0; i < segs; i++) {
-      const dx = arr[i * 6 + 3] - arr[i * 6], dy = arr[i * 6 + 4] - arr[i * 6 + 1], dz = arr[i * 6 + 5] - arr[i * 6 + 2];
-      d[i * 2] = acc;
-      acc += Math.sqrt(dx * dx + dy * dy + dz * dz);
-      d[i * 2 + 1] = acc;
+      const ax = world[i * 3], ay = world[i * 3 + 1], az = world[i * 3 + 2];
+      const bx = world[i * 3 + 3], by = world[i * 3 + 4], bz = world[i * 3 + 5];
+      const d0 = acc;
+      acc += Math.sqrt((bx - ax) ** 2 + (by - ay) ** 2 + (bz - az) ** 2);
+      for (let v = 0; v < this.k; v++) {
+        const j = (i * this.k + v) * 3;
+        s[j] = ax; s[j + 1] = ay; s[j + 2] = az;
+        e[j] = bx; e[j + 1] = by; e[j + 2] = bz;
+        ds[i * this.k + v] = d0;
+        de[i * this.k + v] = acc;
+      }
     }
-    dAttr.data.needsUpdate = true;
+    this.start.needsUpdate = this.end.needsUpdate = this.dStart.needsUpdate = this.dEnd.needsUpdate = true;
   }
   dispose() {
     this.geom.dispose();
@@ -81,7 +129,6 @@ export function Ring({ k }: { k: CircleKey }) {
       pl.set(world);
       last.current = model.version;
     }
-    pl.mat.resolution.set(size.width, size.height);
     pl.mat.dashScale = pxPerUnit(camera, size.height, cam.t);
   });
   return <primitive object={pl.line} renderOrder={3} />;
@@ -99,7 +146,7 @@ export function Grid({ kind }: { kind: 'altAzGrid' | 'raDecGrid' | 'eclipticGrid
   const obj = useMemo(() => {
     const g = buildGrid(
       kind === 'altAzGrid' ? (az, alt, o) => altAzToEnu(o, az, alt) : (lon, lat, o) => unitFromLonLat(o, lon, lat),
-      { lonStep: kind === 'raDecGrid' ? 15 : 30, latStep: 15, stepDeg: 3, lonLabel: String, latLabel: String },
+      { lonStep: kind === 'raDecGrid' ? 15 : 30, latStep: 15, stepDeg: 6, lonLabel: String, latLabel: String },
     );
     const pos = new Float32Array(g.segments.length);
     for (let i = 0; i < pos.length; i++) pos[i] = g.segments[i] * R;
@@ -267,6 +314,11 @@ export function Ground({ show }: { show: boolean }) {
     const t = cam.t;
     const hm = objs.hemi.material as THREE.MeshBasicMaterial;
     hm.opacity = 1 - t;
+    // Opaque while it is fully opaque: blending costs every pixel of half the screen on a software rasteriser.
+    if (hm.transparent !== t > 0) {
+      hm.transparent = t > 0;
+      hm.needsUpdate = true;
+    }
     objs.hemi.visible = show && t < 0.999;
     hm.depthWrite = t < 0.5;
     (objs.disc.material as THREE.MeshBasicMaterial).opacity = 0.35 * t;
@@ -302,8 +354,6 @@ export function Axes() {
     objs.polar.line.visible = objs.vertical.line.visible = vis;
     objs.polar.mat.opacity = objs.vertical.mat.opacity = cam.t;
     objs.polar.mat.transparent = objs.vertical.mat.transparent = true;
-    objs.polar.mat.resolution.set(size.width, size.height);
-    objs.vertical.mat.resolution.set(size.width, size.height);
     objs.vertical.mat.dashScale = pxPerUnit(camera, size.height, cam.t);
     if (last.current === model.version) return;
     last.current = model.version;
@@ -355,7 +405,7 @@ export function Envelope() {
     const mesh = new THREE.Mesh(geom, new THREE.MeshBasicMaterial({ vertexColors: true, transparent: true, side: THREE.DoubleSide, depthWrite: false }));
     mesh.frustumCulled = false;
     mesh.renderOrder = 1;
-    const maskLine = new PolyLine(patternLineMaterial(COLORS.maskEdge, 2.2, []), 361);
+    const maskLine = new PolyLine(patternLineMaterial(COLORS.maskEdge, 2.2, []), 361, true);
     const maskBand = new THREE.Mesh(
       new THREE.BufferGeometry().setAttribute('position', new THREE.BufferAttribute(new Float32Array(361 * 2 * 3), 3)).setIndex(
         Array.from({ length: 360 }, (_, i) => [i * 2, i * 2 + 1, i * 2 + 2, i * 2 + 1, i * 2 + 3, i * 2 + 2]).flat(),
@@ -383,8 +433,7 @@ export function Envelope() {
     // The blocked band reads as landscape in the Observer view; from outside it must not hide the sphere.
     (objs.maskBand.material as THREE.MeshBasicMaterial).opacity = 0.85 - 0.6 * cam.t;
     for (const pl of [objs.sunRing, objs.moonRing, objs.maskLine]) {
-      pl.mat.resolution.set(size.width, size.height);
-      pl.mat.dashScale = pxPerUnit(camera, size.height, 0);
+        pl.mat.dashScale = pxPerUnit(camera, size.height, 0);
     }
     const env = model.envelope;
     objs.mesh.visible = !!env;

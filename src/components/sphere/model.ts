@@ -66,7 +66,12 @@ const REF_LABELS: Record<string, string> = {
   eclipticHorizon2: 'Ecliptic ∩ horizon',
 };
 
-export const RING_SEGMENTS = 256;
+/**
+ * Points per great circle. Seen from the sphere's centre (Observer view) a great circle is a straight
+ * line whatever the count; from outside (Sphere view) a 2.8° chord departs from the circle by 3e-4 of
+ * the radius, a tenth of a pixel. Fewer vertices is what a software rasteriser needs most.
+ */
+export const RING_SEGMENTS = 128;
 
 export class SkyModel {
   site: SiteInput;
