@@ -75,10 +75,14 @@ export function bodiesMoved(f: sky.SkyFrame, prev: SkyBody[]): SkyBody[] {
 export const starsToEnu = (cat: sky.PositionSet, frame: sky.SkyFrame, out: Float32Array) => sky.starsToEnu(cat, frame, out);
 
 let catPromise: Promise<Catalogue> | null = null;
-/** Loads the engine's catalogue once and sorts it brightest first (so a magnitude limit is a draw range). */
+/**
+ * Loads the engine's catalogue once and sorts it brightest first (so a magnitude limit is a draw range).
+ * The catalogue (390 kB) is a chunk of its own, fetched after the view's code: the first frame of the
+ * sky does not wait for it, and the stars appear a moment later.
+ */
 export function loadCatalogue(): Promise<Catalogue> {
-  catPromise ??= Promise.resolve().then(() => {
-    const c = sky.loadCatalogue();
+  catPromise ??= import('../../lib/sky/catalogue/index').then((m) => {
+    const c = m.loadCatalogue();
     const n: number = c.count;
     const key = (i: number) => (Number.isNaN(c.vmag[i]) ? 99 : c.vmag[i]);
     const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => key(a) - key(b));
