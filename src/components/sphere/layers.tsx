@@ -284,6 +284,11 @@ export function Bodies() {
   return <primitive object={points} renderOrder={4} />;
 }
 
+/*
+ * Transparent double-sided meshes are drawn in one pass (forceSinglePass): three would otherwise draw their
+ * back faces and then their front faces, twice the work for a tint whose order does not matter.
+ */
+
 /** Ground: an opaque lower hemisphere in the Observer view, a translucent horizon disc in the Sphere view. */
 export function Ground({ show }: { show: boolean }) {
   const { cam } = useView();
@@ -295,7 +300,7 @@ export function Ground({ show }: { show: boolean }) {
     hemi.renderOrder = 5;
     const disc = new THREE.Mesh(
       new THREE.CircleGeometry(R, 128).rotateX(-Math.PI / 2),
-      new THREE.MeshBasicMaterial({ color: COLORS.groundSphere, side: THREE.DoubleSide, transparent: true, opacity: 0.35, depthWrite: false }),
+      new THREE.MeshBasicMaterial({ color: COLORS.groundSphere, side: THREE.DoubleSide, transparent: true, opacity: 0.35, depthWrite: false, forceSinglePass: true }),
     );
     disc.renderOrder = 0;
     const observer = new THREE.Group();
@@ -402,7 +407,7 @@ export function Envelope() {
     geom.setAttribute('position', new THREE.BufferAttribute(pos, 3));
     geom.setAttribute('color', new THREE.BufferAttribute(new Float32Array(n * 4), 4));
     geom.setIndex(idx);
-    const mesh = new THREE.Mesh(geom, new THREE.MeshBasicMaterial({ vertexColors: true, transparent: true, side: THREE.DoubleSide, depthWrite: false }));
+    const mesh = new THREE.Mesh(geom, new THREE.MeshBasicMaterial({ vertexColors: true, transparent: true, side: THREE.DoubleSide, depthWrite: false, forceSinglePass: true }));
     mesh.frustumCulled = false;
     mesh.renderOrder = 1;
     const maskLine = new PolyLine(patternLineMaterial(COLORS.maskEdge, 2.2, []), 361, true);
@@ -410,7 +415,7 @@ export function Envelope() {
       new THREE.BufferGeometry().setAttribute('position', new THREE.BufferAttribute(new Float32Array(361 * 2 * 3), 3)).setIndex(
         Array.from({ length: 360 }, (_, i) => [i * 2, i * 2 + 1, i * 2 + 2, i * 2 + 1, i * 2 + 3, i * 2 + 2]).flat(),
       ),
-      new THREE.MeshBasicMaterial({ color: COLORS.mask, side: THREE.DoubleSide, transparent: true, opacity: 0.85 }),
+      new THREE.MeshBasicMaterial({ color: COLORS.mask, side: THREE.DoubleSide, transparent: true, opacity: 0.85, forceSinglePass: true }),
     );
     maskBand.frustumCulled = false;
     maskBand.renderOrder = 6;
