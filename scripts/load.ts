@@ -147,8 +147,9 @@ async function editorsPhase(base: string, seconds: number): Promise<PhaseResult>
 }
 
 export async function runLoad(): Promise<Record<string, unknown>> {
-  if (!existsSync(`${process.env.ARMILLA_DIST ?? 'dist'}/server/entry.mjs`)) throw new Error('no build: run `npx astro build` first');
-  const css = readdirSync('dist/client/_astro').find((f) => f.endsWith('.css'));
+  const dist = process.env.ARMILLA_DIST ?? 'dist';
+  if (!existsSync(`${dist}/server/entry.mjs`)) throw new Error('no build: run `npx astro build` first');
+  const css = readdirSync(`${dist}/client/_astro`).find((f) => f.endsWith('.css'));
   if (!css) throw new Error('no /_astro/*.css in dist/client');
   const staticPath = `/_astro/${css}`;
 

@@ -167,6 +167,52 @@ describe('GET /api/shared/:token', () => {
     expect((await as.anon.get(`/api/shared/${a.token}`)).status).toBe(404);
   });
 
+  // The answer is served from a cache keyed by the scene's state (scenes.server.ts publicSceneJson):
+  // every change must show at once, also when it is made through another instance on the same file.
+  test('the answer follows every change at once: edit, thumbnail, team envelope edited and deleted, revocation', async () => {
+    const env = (await as.editor.post(`/api/teams/${teamId}/envelopes`, { name: 'Cache limits', minAltitude: 15 })).data.envelope;
+    const sc = await scene({ envelopeId: env.id });
+    const l = await link(sc.id, 'viewer');
+    const shared = async () => {
+      const r = await as.anon.get(`/api/shared/${l.token}`);
+      expect(r.status).toBe(200);
+      return r.data.scene;
+    };
+    // the body is what the member's GET answers, without account ids
+    const member = (await as.editor.get(`/api/scenes/${sc.id}`)).data.scene;
+    const { createdBy: _c, updatedBy: _u, ...expected } = member;
+    expect(await shared()).toEqual(expected);
+    expect((await shared()).envelope.minAltitude).toBe(15);
+
+    const b = await startServer({ dbUrl: s.dbUrl });
+    try {
+      const editorB = new ApiClient(b.url);
+      await editorB.signIn(DEMO.editor);
+      // an edit made through instance B
+      expect((await editorB.patch(`/api/scenes/${sc.id}`, { version: sc.version, title: 'Edited on B' })).status).toBe(200);
+      expect(await shared()).toMatchObject({ title: 'Edited on B', version: sc.version + 1 });
+      // the team envelope edited in place (no scene version)
+      expect((await editorB.patch(`/api/envelopes/${env.id}`, { minAltitude: 22 })).status).toBe(200);
+      expect(await shared()).toMatchObject({ version: sc.version + 1, envelopeId: env.id, envelope: { minAltitude: 22 } });
+      // a thumbnail uploaded (no scene version)
+      const thumb = await fetch(`${b.url}/api/scenes/${sc.id}/thumbnail`, {
+        method: 'PUT',
+        headers: { cookie: [...editorB.cookies].map(([k, v]) => `${k}=${v}`).join('; '), 'content-type': 'image/png' },
+        body: Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==', 'base64'),
+      });
+      expect(thumb.status).toBe(204);
+      expect((await shared()).hasThumbnail).toBe(true);
+      // the team envelope deleted: its limits stay inline (no scene version)
+      expect((await editorB.del(`/api/envelopes/${env.id}`)).status).toBe(204);
+      expect(await shared()).toMatchObject({ version: sc.version + 1, envelopeId: null, envelope: { minAltitude: 22 } });
+      // revoked on B: dead at once on A
+      expect((await editorB.del(`/api/scenes/${sc.id}/links/${l.id}`)).status).toBe(204);
+      expect((await as.anon.get(`/api/shared/${l.token}`)).status).toBe(404);
+    } finally {
+      await b.stop();
+    }
+  });
+
   test('a link never edits: PATCH/DELETE on the token are 403', async () => {
     const sc = await scene();
     const a = await link(sc.id, 'reviewer');

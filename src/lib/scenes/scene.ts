@@ -11,13 +11,19 @@ export const isoUtc = z
   // Date.parse rolls 2026-02-30 over to 2 March; only UTC offsets are allowed, so the date must round-trip.
   .refine((s) => Number.isNaN(Date.parse(s)) || new Date(s).toISOString().slice(0, 10) === s.slice(0, 10), 'is not a real date');
 
+/** Zones found valid so far: building an Intl.DateTimeFormat costs more than the rest of a scene's check. */
+const knownZones = new Set<string>();
+const KNOWN_ZONES_MAX = 2000;
+
 export const timeZone = z.string().min(1).max(64).refine((tz) => {
+  if (knownZones.has(tz)) return true;
   try {
     new Intl.DateTimeFormat('en', { timeZone: tz });
-    return true;
   } catch {
     return false;
   }
+  if (knownZones.size < KNOWN_ZONES_MAX) knownZones.add(tz);
+  return true;
 }, 'must be an IANA time zone such as Europe/Madrid');
 
 export const siteSchema = z.object({

@@ -23,7 +23,12 @@ export const forbidden = (message = 'You are not allowed to do that.') => new Ht
 export const notFound = (what = 'Resource') => new HttpError(404, 'not_found', `${what} not found.`);
 
 export function json(data: unknown, status = 200, headers: Record<string, string> = {}): Response {
-  return new Response(status === 204 ? null : JSON.stringify(data), {
+  return jsonText(status === 204 ? null : JSON.stringify(data), status, headers);
+}
+
+/** `json()` for a body serialised already (e.g. from a cache). */
+export function jsonText(text: string | null, status = 200, headers: Record<string, string> = {}): Response {
+  return new Response(text, {
     status,
     headers: { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store', ...headers },
   });

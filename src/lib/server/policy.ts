@@ -64,7 +64,11 @@ export async function roleIn(db: DbOrTx, userId: string, teamId: string): Promis
  * `what` names the resource in the 404 message.
  */
 export async function authorize(db: DbOrTx, user: User, teamId: string, action: Action, what = 'Resource'): Promise<Role> {
-  const role = await roleIn(db, user.id, teamId);
+  return decide(await roleIn(db, user.id, teamId), action, what);
+}
+
+/** authorize() for a role already read (e.g. joined with the resource): the same 404 / 403. */
+export function decide(role: Role | null, action: Action, what = 'Resource'): Role {
   if (role === null) throw notFound(what);
   if (!can(role, action)) throw new HttpError(403, 'forbidden', `Your role (${role}) cannot do that.`);
   return role;

@@ -2,14 +2,17 @@
  * Scene storage: create, read, optimistic-concurrency update, delete, history and restore.
  * Services take `Db | Tx`; they never import the app's db handle, so scripts (seed) can use them too.
  */
-import { and, desc, eq, inArray } from 'drizzle-orm';
+import { and, desc, eq, inArray, sql, type Placeholder } from 'drizzle-orm';
+import { drizzle } from 'drizzle-orm/libsql';
 import { nanoid } from 'nanoid';
 import type { User } from 'lucia';
 import type { Db, DbOrTx, Tx } from './db/client';
 import { envelopes, memberships, scenes, sceneVersions, sites } from './db/schema';
 import { audit } from './audit';
 import { HttpError, notFound } from './http';
-import { authorize, type Action } from './policy';
+import { authorize, decide, type Action } from './policy';
+import { preparedReadsOf } from './db/prepared';
+import type { Role } from './db/schema';
 import {
   applyPatch,
   defaultCamera,
@@ -72,15 +75,25 @@ export async function writeTx<T>(db: DbOrTx, fn: (tx: Tx) => Promise<T>): Promis
 const DOC_CACHE_MAX = 500;
 const docCache = new Map<string, SceneDoc>();
 
-/** The stored document of a row, validated on the way out (a bad row is a bug: it throws → 500). */
-export function docOf(row: SceneRow): SceneDoc {
-  const key = `${row.id}:${row.version}:${row.envelopeId ?? ''}`;
-  const hit = docCache.get(key);
-  if (hit) return structuredClone(hit);
-  const doc = parseDoc(row);
+const docKey = (row: Pick<SceneRow, 'id' | 'version' | 'envelopeId'>) => `${row.id}:${row.version}:${row.envelopeId ?? ''}`;
+
+function remember(key: string, doc: SceneDoc) {
   if (docCache.size >= DOC_CACHE_MAX) docCache.delete(docCache.keys().next().value!);
   docCache.set(key, doc);
+}
+
+/** The stored document of a row, validated on the way out (a bad row is a bug: it throws → 500). */
+export function docOf(row: SceneRow): SceneDoc {
+  const hit = docCache.get(docKey(row));
+  if (hit) return structuredClone(hit);
+  const doc = parseDoc(row);
+  remember(docKey(row), doc);
   return structuredClone(doc);
+}
+
+/** The cached document of a scene state, if there is one: the cache's own object, never to be changed. */
+function cachedDocReadOnly(state: Pick<SceneRow, 'id' | 'version' | 'envelopeId'>): Readonly<SceneDoc> | undefined {
+  return docCache.get(docKey(state));
 }
 
 function parseDoc(row: SceneRow): SceneDoc {
@@ -112,8 +125,13 @@ async function resolveEnvelope(db: DbOrTx, row: SceneRow, doc: SceneDoc): Promis
   return doc.envelope;
 }
 
-export async function toSceneOut(db: DbOrTx, row: SceneRow): Promise<SceneOut> {
-  const doc = docOf(row);
+type SceneMeta = Pick<SceneRow, 'id' | 'teamId' | 'envelopeId' | 'version' | 'createdBy' | 'updatedBy' | 'createdAt' | 'updatedAt'> & {
+  hasThumbnail: boolean;
+};
+const hasThumbnailOf = (row: SceneRow) => row.thumbnail !== null && row.thumbnail !== undefined;
+
+/** The API form of a scene whose team envelope (if any) is already resolved. */
+function sceneOutOf(row: SceneMeta, doc: SceneDoc, envelope: EnvelopeJson | null): SceneOut {
   return {
     id: row.id,
     teamId: row.teamId,
@@ -124,7 +142,7 @@ export async function toSceneOut(db: DbOrTx, row: SceneRow): Promise<SceneOut> {
     layers: doc.layers,
     camera: doc.camera,
     envelopeId: row.envelopeId,
-    envelope: await resolveEnvelope(db, row, doc),
+    envelope,
     targets: doc.targets,
     pins: doc.pins,
     steps: doc.steps,
@@ -133,14 +151,80 @@ export async function toSceneOut(db: DbOrTx, row: SceneRow): Promise<SceneOut> {
     updatedBy: row.updatedBy,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
-    hasThumbnail: row.thumbnail !== null && row.thumbnail !== undefined,
+    hasThumbnail: row.hasThumbnail,
   };
+}
+
+export async function toSceneOut(db: DbOrTx, row: SceneRow): Promise<SceneOut> {
+  const doc = docOf(row);
+  return sceneOutOf({ ...row, hasThumbnail: hasThumbnailOf(row) }, doc, await resolveEnvelope(db, row, doc));
 }
 
 /** For link guests: the same scene without account ids. */
 export function publicScene(s: SceneOut): Omit<SceneOut, 'createdBy' | 'updatedBy'> {
   const { createdBy: _c, updatedBy: _u, ...rest } = s;
   return rest;
+}
+
+/**
+ * The columns that, together, determine a scene's public answer: every edit raises `version` (and
+ * moves `updatedAt`); deleting a team envelope changes `envelopeId`; a thumbnail upload flips
+ * `hasThumbnail`; a team envelope edited in place changes `envelopeData` (its stored JSON text, read
+ * raw). Select them with `LEFT JOIN envelopes ON envelopes.id = scenes.envelope_id`.
+ */
+export const sceneStateColumns = {
+  id: scenes.id,
+  teamId: scenes.teamId,
+  version: scenes.version,
+  envelopeId: scenes.envelopeId,
+  createdAt: scenes.createdAt,
+  updatedAt: scenes.updatedAt,
+  hasThumbnail: sql<number>`(${scenes.thumbnail} is not null)`,
+  envelopeData: sql<string | null>`${envelopes.data}`,
+};
+export interface SceneState {
+  id: string;
+  teamId: string;
+  version: number;
+  envelopeId: string | null;
+  createdAt: Date;
+  updatedAt: Date;
+  hasThumbnail: number;
+  envelopeData: string | null;
+}
+
+const stateKey = (s: SceneState) =>
+  `${s.teamId}:${s.version}:${s.envelopeId ?? ''}:${s.createdAt.getTime()}:${s.updatedAt.getTime()}:${s.hasThumbnail ? 1 : 0}`;
+
+/**
+ * Serialised public answers (`JSON.stringify(publicScene(toSceneOut(row)))`) by scene id, each with
+ * the state it was built from. An entry is used only when the state just read from the database is
+ * the same, so the cache is a pure function of the database: an edit made through another instance
+ * on the same file shows at once. It holds nothing about links (validity is checked on every request).
+ */
+const PUBLIC_JSON_CACHE_MAX = 500;
+const publicJsonCache = new Map<string, { key: string; envelopeData: string | null; json: string }>();
+
+/** The public answer for a scene in `state` (as read by `resolveLink`), from the cache when it is current. */
+export async function publicSceneJson(db: DbOrTx, state: SceneState): Promise<string> {
+  const hit = publicJsonCache.get(state.id);
+  if (hit && hit.key === stateKey(state) && hit.envelopeData === state.envelopeData) return hit.json;
+  // Row and envelope in one statement (one snapshot), so the entry matches the state it is stored with.
+  const rows = await db
+    .select({ row: scenes, state: sceneStateColumns })
+    .from(scenes)
+    .leftJoin(envelopes, eq(envelopes.id, scenes.envelopeId))
+    .where(eq(scenes.id, state.id))
+    .limit(1);
+  if (!rows[0]) throw notFound('Link');
+  const { row, state: now } = rows[0];
+  const doc = docOf(row);
+  const envelope = row.envelopeId ? (now.envelopeData === null ? null : envelopeOf(JSON.parse(now.envelopeData))) : doc.envelope;
+  const json = JSON.stringify(publicScene(sceneOutOf({ ...row, hasThumbnail: hasThumbnailOf(row) }, doc, envelope)));
+  publicJsonCache.delete(row.id);
+  if (publicJsonCache.size >= PUBLIC_JSON_CACHE_MAX) publicJsonCache.delete(publicJsonCache.keys().next().value!);
+  publicJsonCache.set(row.id, { key: stateKey(now), envelopeData: now.envelopeData, json });
+  return json;
 }
 
 export async function sceneRow(db: DbOrTx, id: string): Promise<SceneRow | null> {
@@ -155,6 +239,29 @@ export async function sceneFor(db: DbOrTx, user: User, id: string, action: Actio
   const role = await authorize(db, user, row.teamId, action, 'Scene');
   return { row, role };
 }
+
+/**
+ * sceneFor without the document: the id and team of a scene the caller may `action`, and the caller's
+ * role, read in one statement (prepared once when the handle has prepared reads). Same 404 / 403.
+ */
+export async function sceneAccess(db: DbOrTx, user: User, id: string, action: Action) {
+  const reads = preparedReadsOf(db);
+  const rows = reads
+    ? await reads.all(SCENE_ACCESS_SQL, [user.id, id])
+    : ((await db.values(sceneAccessQuery(db, user.id, id))) as unknown[][]);
+  if (!rows[0]) throw notFound('Scene');
+  const [sceneId, teamId, member] = rows[0] as [string, string, Role | null];
+  const role = decide(member ?? null, action, 'Scene');
+  return { id: sceneId, teamId, role };
+}
+
+const sceneAccessQuery = (db: DbOrTx, userId: string | Placeholder, id: string | Placeholder) =>
+  db
+    .select({ id: scenes.id, teamId: scenes.teamId, role: memberships.role })
+    .from(scenes)
+    .leftJoin(memberships, and(eq(memberships.teamId, scenes.teamId), eq(memberships.userId, userId)))
+    .where(eq(scenes.id, id));
+const SCENE_ACCESS_SQL = sceneAccessQuery(drizzle.mock({ casing: 'snake_case' }), sql.placeholder('user'), sql.placeholder('id')).toSQL().sql;
 
 export async function listScenes(db: DbOrTx, userId: string, teamId?: string) {
   const teamIds = (await db.select({ teamId: memberships.teamId }).from(memberships).where(eq(memberships.userId, userId))).map(
@@ -298,9 +405,33 @@ async function conflict(db: DbOrTx, id: string): Promise<HttpError> {
   );
 }
 
+/** A scene's columns other than the document and the thumbnail bytes. */
+const sceneHeadColumns = {
+  id: scenes.id,
+  teamId: scenes.teamId,
+  version: scenes.version,
+  envelopeId: scenes.envelopeId,
+  createdBy: scenes.createdBy,
+  createdAt: scenes.createdAt,
+  updatedAt: scenes.updatedAt,
+  hasThumbnail: sql<number>`(${scenes.thumbnail} is not null)`,
+};
+
+/** Document fields a PATCH body may set, and the columns they live in. */
+const DOC_KEYS = ['title', 'description', 'site', 'time', 'layers', 'camera', 'targets', 'pins', 'steps'] as const;
+
+/** The document fields (= columns) a PATCH body changes; choosing an envelope touches both envelope columns. */
+function patchedKeys(body: ScenePatchBody): Array<keyof SceneDoc> {
+  const keys: Array<keyof SceneDoc> = DOC_KEYS.filter((k) => body[k] !== undefined);
+  if (body.envelopeId !== undefined || body.envelope !== undefined) keys.push('envelopeId', 'envelope');
+  return keys;
+}
+
 /**
  * PATCH with optimistic concurrency: `UPDATE … WHERE id = ? AND version = ?` inside one transaction;
  * no row updated → 409 with the current scene. The caller has checked `scene.write`.
+ * The current document comes from the document cache when it holds this version (only the scene's
+ * head is read then); the answer is built from the document just written, not read back.
  */
 export async function updateScene(
   db: DbOrTx,
@@ -310,18 +441,30 @@ export async function updateScene(
   action = 'scene.update',
   extraDetail: Record<string, unknown> = {},
 ): Promise<SceneOut> {
+  let result: { meta: SceneMeta; doc: SceneDoc; envelope: EnvelopeJson | null };
   try {
-    await writeTx(db, async (tx) => {
-      const row = await sceneRow(tx, id);
-      if (!row) throw notFound('Scene');
-      if (row.version !== body.version) throw new VersionConflict();
-      const next = sceneDocSchema.parse(applyPatch(docOf(row), body));
-      if (next.envelopeId && next.envelopeId !== row.envelopeId) await checkEnvelopeInTeam(tx, next.envelopeId, row.teamId);
-      const at = new Date(Math.max(Date.now(), row.updatedAt.getTime() + 1));
+    result = await writeTx(db, async (tx) => {
+      const head = (await tx.select(sceneHeadColumns).from(scenes).where(eq(scenes.id, id)).limit(1))[0];
+      if (!head) throw notFound('Scene');
+      if (head.version !== body.version) throw new VersionConflict();
+      const current = cachedDocReadOnly(head) ?? docOf((await sceneRow(tx, id))!);
+      // applyPatch copies (it never changes `current`, which may be the cache's own object). Only the
+      // fields the body sets are checked again: `current` is valid (checked on its way out of the
+      // database, or in), and sceneDocSchema has no rule across fields, so the document is valid as a
+      // whole without a zod pass over every target of a large scene for a change of title.
+      const next = applyPatch(current as SceneDoc, body);
+      // The row is updated where the body touches it; the snapshot below holds the whole document.
+      const changed: Partial<SceneDoc> = {};
+      for (const k of patchedKeys(body)) {
+        const v = sceneDocSchema.shape[k].parse(next[k]);
+        (next as Record<string, unknown>)[k] = (changed as Record<string, unknown>)[k] = v;
+      }
+      if (next.envelopeId && next.envelopeId !== head.envelopeId) await checkEnvelopeInTeam(tx, next.envelopeId, head.teamId);
+      const at = new Date(Math.max(Date.now(), head.updatedAt.getTime() + 1));
       const updated = await tx
         .update(scenes)
         .set({
-          ...columnsOf(next),
+          ...changed,
           ...(body.thumbnail !== undefined ? { thumbnail: body.thumbnail } : {}),
           version: body.version + 1,
           updatedBy: userId,
@@ -332,13 +475,25 @@ export async function updateScene(
       if (updated.length === 0) throw new VersionConflict();
       await snapshot(tx, id, body.version + 1, next, userId, at);
       const fields = Object.keys(body).filter((k) => k in next || k === 'thumbnail');
-      await audit(tx, { teamId: row.teamId, userId, action, subjectType: 'scene', subjectId: id, detail: { version: body.version + 1, fields, ...extraDetail } });
+      await audit(tx, { teamId: head.teamId, userId, action, subjectType: 'scene', subjectId: id, detail: { version: body.version + 1, fields, ...extraDetail } });
+      let envelope = next.envelope;
+      if (next.envelopeId) {
+        const e = await tx.select({ data: envelopes.data }).from(envelopes).where(eq(envelopes.id, next.envelopeId)).limit(1);
+        envelope = e[0] ? envelopeOf(e[0].data) : null;
+      }
+      const hasThumbnail = body.thumbnail !== undefined ? body.thumbnail !== null : head.hasThumbnail !== 0;
+      const meta = { ...head, version: body.version + 1, envelopeId: next.envelopeId, updatedBy: userId, updatedAt: at, hasThumbnail };
+      return { meta, doc: next, envelope };
     });
   } catch (e) {
     if (e instanceof VersionConflict) throw await conflict(db, id);
     throw e;
   }
-  return toSceneOut(db, (await sceneRow(db, id))!);
+  // Committed: the next save (or read) of this version finds its document without a zod pass. The
+  // cached document shares unchanged parts with the previous version's (neither is ever changed);
+  // the caller gets a copy of its own.
+  remember(docKey(result.meta), result.doc);
+  return sceneOutOf(result.meta, structuredClone(result.doc), result.envelope);
 }
 
 export async function deleteScene(db: DbOrTx, userId: string, row: SceneRow): Promise<void> {

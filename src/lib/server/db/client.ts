@@ -2,6 +2,7 @@ import { createClient, type Client } from '@libsql/client';
 import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
 import * as schema from './schema';
 import { serialiseWrites } from './write-lock';
+import { preparedReads, registerPreparedReads } from './prepared';
 
 export type Db = LibSQLDatabase<typeof schema>;
 /** A transaction handle; services accept `Db | Tx`. */
@@ -9,6 +10,7 @@ export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export type DbOrTx = Db | Tx;
 
 export const DEFAULT_DATABASE_URL = 'file:./data/armilla.db';
+const BUSY_TIMEOUT_MS = 5000;
 
 export interface DbHandle {
   db: Db;
@@ -29,7 +31,7 @@ export async function openDb(url = DEFAULT_DATABASE_URL, authToken?: string): Pr
     if (path && path !== ':memory:') mkdirSync(dirname(path), { recursive: true });
   }
   // `timeout` is the busy timeout of every connection in the client's pool (a PRAGMA would reach only one).
-  const raw = createClient({ url, ...(authToken ? { authToken } : {}), timeout: 5000 });
+  const raw = createClient({ url, ...(authToken ? { authToken } : {}), timeout: BUSY_TIMEOUT_MS });
   const client = url.startsWith('file:') ? serialiseWrites(raw) : raw;
   if (url.startsWith('file:')) {
     // journal_mode is stored in the file; synchronous is per connection and FULL is libSQL's default,
@@ -39,5 +41,20 @@ export async function openDb(url = DEFAULT_DATABASE_URL, authToken?: string): Pr
   }
   await client.execute('PRAGMA foreign_keys = ON');
   const db = drizzle(client, { schema, casing: 'snake_case' });
-  return { db, client };
+  // Statements prepared once for the hottest reads (prepared.ts); closed with the client.
+  const reads = preparedReads(url, client, BUSY_TIMEOUT_MS);
+  registerPreparedReads(db, reads);
+  const closing = new Proxy(client, {
+    get(target, prop) {
+      if (prop === 'close') {
+        return () => {
+          reads.close();
+          target.close();
+        };
+      }
+      const v = Reflect.get(target, prop, target);
+      return typeof v === 'function' ? v.bind(target) : v;
+    },
+  });
+  return { db, client: closing };
 }

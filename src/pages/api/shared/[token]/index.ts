@@ -1,17 +1,22 @@
 import { db } from '../../../../lib/server/db';
-import { forbidden, json, route } from '../../../../lib/server/http';
-import { resolveToken } from '../../../../lib/server/links';
-import { publicScene, toSceneOut } from '../../../../lib/server/scenes.server';
+import { forbidden, jsonText, route } from '../../../../lib/server/http';
+import { resolveLink } from '../../../../lib/server/links';
+import { publicSceneJson } from '../../../../lib/server/scenes.server';
 
-/** No account needed: `{scene, role}` read-only; 404 for unknown, revoked or expired tokens. */
+/**
+ * No account needed: `{scene, role}` read-only; 404 for unknown, revoked or expired tokens.
+ * The hot read path of a presentation: the link is checked against the database on every request,
+ * the scene's serialised answer comes from a cache keyed by the scene's state (scenes.server.ts).
+ */
 export const GET = route(async ({ params }) => {
-  const { link, scene } = await resolveToken(db, params.token!, true);
-  return json({ scene: publicScene(await toSceneOut(db, scene)), role: link.role });
+  const link = await resolveLink(db, params.token!, true);
+  const scene = await publicSceneJson(db, link.scene);
+  return jsonText(`{"scene":${scene},"role":${JSON.stringify(link.role)}}`);
 });
 
 /** A link never edits or deletes: 403 for a live link (404 for a dead one, as everywhere). */
 const readOnly = route(async ({ params }) => {
-  await resolveToken(db, params.token!);
+  await resolveLink(db, params.token!);
   throw forbidden('A shared link is read-only; sign in as an editor to change the scene.');
 });
 export const PATCH = readOnly;
