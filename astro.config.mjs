@@ -3,11 +3,36 @@ import { defineConfig, envField } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { copyFileSync, existsSync, renameSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+
+/**
+ * Our own HTTP server around Astro (see scripts/server-entry.mjs): after a build, Astro's entry becomes
+ * dist/server/app.mjs and ours takes dist/server/entry.mjs.
+ */
+function armillaServer() {
+  let outDir;
+  return {
+    name: 'armilla-server',
+    hooks: {
+      'astro:config:done': ({ config }) => {
+        outDir = config.outDir;
+      },
+      'astro:build:done': () => {
+        const entry = fileURLToPath(new URL('server/entry.mjs', outDir));
+        const app = fileURLToPath(new URL('server/app.mjs', outDir));
+        if (!existsSync(entry)) throw new Error(`armilla-server: no ${entry}`);
+        renameSync(entry, app);
+        copyFileSync(fileURLToPath(new URL('./scripts/server-entry.mjs', import.meta.url)), entry);
+      },
+    },
+  };
+}
 
 export default defineConfig({
   output: 'server',
-  adapter: node({ mode: 'standalone' }),
-  integrations: [react()],
+  adapter: node({ mode: 'middleware' }),
+  integrations: [react(), armillaServer()],
   // Astro's checkOrigin covers form posts only; src/middleware.ts checks every non-GET itself.
   security: { checkOrigin: false },
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
