@@ -10,7 +10,9 @@ import { fileURLToPath } from 'node:url';
  * Our own HTTP server around Astro (see scripts/server-entry.mjs): after a build, Astro's entry becomes
  * dist/server/app.mjs and ours takes dist/server/entry.mjs.
  */
+/** @returns {import('astro').AstroIntegration} */
 function armillaServer() {
+  /** @type {URL | undefined} */
   let outDir;
   return {
     name: 'armilla-server',
@@ -19,6 +21,7 @@ function armillaServer() {
         outDir = config.outDir;
       },
       'astro:build:done': () => {
+        if (!outDir) throw new Error('armilla-server: no outDir');
         const entry = fileURLToPath(new URL('server/entry.mjs', outDir));
         const app = fileURLToPath(new URL('server/app.mjs', outDir));
         if (!existsSync(entry)) throw new Error(`armilla-server: no ${entry}`);

@@ -171,8 +171,11 @@ async function bodyOf(r: Recipe, t: Target): Promise<string> {
       const base = await t.valid();
       const keys = Object.keys(base);
       const key = keys[r.keyIndex % keys.length];
-      let value = r.value;
-      if (jsonType(JSON.parse(JSON.stringify(value) ?? 'null')) === jsonType(base[key])) value = jsonType(base[key]) === 'number' ? 'not-a-number' : 42;
+      // What the server receives is the JSON of the value: NaN and ±Infinity arrive as null, and null is a
+      // legal value of the nullable fields (a presenter's time, a scene's envelope). A broken field must
+      // therefore be of a wrong, non-null JSON type.
+      let value: unknown = JSON.parse(JSON.stringify(r.value) ?? 'null');
+      if (value === null || jsonType(value) === jsonType(base[key])) value = jsonType(base[key]) === 'number' ? 'not-a-number' : 42;
       return JSON.stringify({ ...base, [key]: value });
     }
   }
