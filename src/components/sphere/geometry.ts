@@ -329,3 +329,75 @@ export function formatDms(d: number, signed = true): string {
 export function formatDeg(d: number, decimals = 2): string {
   return `${d < 0 ? '−' : ''}${Math.abs(d).toFixed(decimals)}°`;
 }
+
+/**
+ * The envelope tint shell: an alt-az grid over the visible hemisphere, `na` cells in azimuth × `nb` in
+ * altitude (0°…90°), vertex (a, b) at index b·(na+1)+a. Triangles wind counter-clockwise seen from the
+ * observer at the origin, so their front face (three's FrontSide) is the inner face.
+ */
+export function envelopeShell(na: number, nb: number, radius: number): { positions: Float32Array; indices: Uint32Array } {
+  const positions = new Float32Array((na + 1) * (nb + 1) * 3);
+  const v = [0, 0, 0];
+  for (let b = 0; b <= nb; b++) {
+    for (let a = 0; a <= na; a++) {
+      enuToWorld(v, altAzToEnu(v, (a * 360) / na, (b * 90) / nb), radius);
+      positions.set(v, (b * (na + 1) + a) * 3);
+    }
+  }
+  const indices = new Uint32Array(na * nb * 6);
+  let k = 0;
+  for (let b = 0; b < nb; b++) {
+    for (let a = 0; a < na; a++) {
+      const i = b * (na + 1) + a;
+      indices.set([i, i + 1, i + na + 1, i + 1, i + na + 2, i + na + 1], k);
+      k += 6;
+    }
+  }
+  return { positions, indices };
+}
+
+/**
+ * Which face of the tint shell to draw: the inner one while the camera is inside the shell (Observer view),
+ * the outer, near one from outside (Sphere view). One face costs half the fragments of a two-sided shell.
+ */
+export function envelopeTintFace(cameraDistance: number, shellRadius: number): 'inner' | 'outer' {
+  return cameraDistance < shellRadius ? 'inner' : 'outer';
+}
+
+/**
+ * Triangles of the tint shell (see envelopeShell) for the cells with at least one forbidden corner, written
+ * to `out`; returns how many indices were written. Runs of wholly forbidden cells up one azimuth column are
+ * merged into one quad of at most `maxRows` cells: its long sides are chords of a vertical circle, which from
+ * the observer's place fall exactly on that circle, so nothing moves on screen. A software rasteriser pays
+ * per triangle, and the forbidden regions are mostly wholly forbidden cells.
+ */
+export function tintIndices(forbidden: (vertex: number) => boolean, na: number, nb: number, out: Uint32Array, maxRows = 6): number {
+  const row = na + 1;
+  let k = 0;
+  const quad = (a: number, b0: number, b1: number) => {
+    const i0 = b0 * row + a, j0 = b1 * row + a;
+    out[k++] = i0; out[k++] = i0 + 1; out[k++] = j0;
+    out[k++] = i0 + 1; out[k++] = j0 + 1; out[k++] = j0;
+  };
+  for (let a = 0; a < na; a++) {
+    let b = 0;
+    while (b < nb) {
+      const i = b * row + a;
+      const c0 = forbidden(i), c1 = forbidden(i + 1), c2 = forbidden(i + row), c3 = forbidden(i + row + 1);
+      if (!(c0 || c1 || c2 || c3)) {
+        b++;
+        continue;
+      }
+      if (!(c0 && c1 && c2 && c3)) {
+        quad(a, b, b + 1);
+        b++;
+        continue;
+      }
+      let e = b + 1;
+      while (e < nb && e - b < maxRows && forbidden((e + 1) * row + a) && forbidden((e + 1) * row + a + 1)) e++;
+      quad(a, b, e);
+      b = e;
+    }
+  }
+  return k;
+}

@@ -8,7 +8,7 @@ import * as THREE from 'three';
 import type { LineMaterial } from 'three/examples/jsm/lines/LineMaterial.js';
 import { useView } from './context';
 import * as engine from './engine';
-import { altAzToEnu, buildGrid, enuListToWorld, enuToWorld, SPHERE_RADIUS, starSizePx, starTint, unitFromLonLat } from './geometry';
+import { altAzToEnu, buildGrid, enuListToWorld, enuToWorld, envelopeShell, envelopeTintFace, SPHERE_RADIUS, tintIndices, starSizePx, starTint, unitFromLonLat } from './geometry';
 import { bodyMaterial, patternLineMaterial, starMaterial } from './materials';
 import { RING_SEGMENTS } from './model';
 import { CIRCLE_STYLES, COLORS, GRID_STYLES, type CircleKey } from './styles';
@@ -388,26 +388,12 @@ export function Envelope() {
   const NA = 120, NB = 45; // 3° in azimuth, 2° in altitude
   const objs = useMemo(() => {
     const n = (NA + 1) * (NB + 1);
-    const pos = new Float32Array(n * 3);
-    const v = [0, 0, 0];
-    for (let b = 0; b <= NB; b++) {
-      for (let a = 0; a <= NA; a++) {
-        enuToWorld(v, altAzToEnu(v, (a * 360) / NA, (b * 90) / NB), R * 0.99);
-        pos.set(v, (b * (NA + 1) + a) * 3);
-      }
-    }
-    const idx: number[] = [];
-    for (let b = 0; b < NB; b++) {
-      for (let a = 0; a < NA; a++) {
-        const i = b * (NA + 1) + a;
-        idx.push(i, i + 1, i + NA + 1, i + 1, i + NA + 2, i + NA + 1);
-      }
-    }
+    const shell = envelopeShell(NA, NB, R * 0.99);
     const geom = new THREE.BufferGeometry();
-    geom.setAttribute('position', new THREE.BufferAttribute(pos, 3));
+    geom.setAttribute('position', new THREE.BufferAttribute(shell.positions, 3));
     geom.setAttribute('color', new THREE.BufferAttribute(new Float32Array(n * 4), 4));
-    geom.setIndex(idx);
-    const mesh = new THREE.Mesh(geom, new THREE.MeshBasicMaterial({ vertexColors: true, transparent: true, side: THREE.DoubleSide, depthWrite: false, forceSinglePass: true }));
+    geom.setIndex(new THREE.BufferAttribute(shell.indices, 1));
+    const mesh = new THREE.Mesh(geom, new THREE.MeshBasicMaterial({ vertexColors: true, transparent: true, side: THREE.FrontSide, depthWrite: false }));
     mesh.frustumCulled = false;
     mesh.renderOrder = 1;
     const maskLine = new PolyLine(patternLineMaterial(COLORS.maskEdge, 2.2, []), 361, true);
@@ -437,6 +423,14 @@ export function Envelope() {
   useFrame(({ size, camera }) => {
     // The blocked band reads as landscape in the Observer view; from outside it must not hide the sphere.
     (objs.maskBand.material as THREE.MeshBasicMaterial).opacity = 0.85 - 0.6 * cam.t;
+    // Tint one side only: the inner face from the observer's place, the near (outer) face from outside.
+    // Half the fragments of a double-sided shell, which is what a software rasteriser pays for.
+    const tintMat = objs.mesh.material as THREE.MeshBasicMaterial;
+    const side = envelopeTintFace(camera.position.length(), R * 0.99) === 'inner' ? THREE.FrontSide : THREE.BackSide;
+    if (tintMat.side !== side) {
+      tintMat.side = side;
+      tintMat.needsUpdate = true;
+    }
     for (const pl of [objs.sunRing, objs.moonRing, objs.maskLine]) {
         pl.mat.dashScale = pxPerUnit(camera, size.height, 0);
     }
@@ -472,18 +466,9 @@ export function Envelope() {
       }
     }
     col.needsUpdate = true;
-    // Draw only the cells with a forbidden corner: far fewer fragments for the software rasteriser.
+    // Draw only the cells with a forbidden corner, wholly forbidden runs merged: far fewer triangles.
     const idx = objs.mesh.geometry.index!;
-    const ia = idx.array as Uint32Array | Uint16Array;
-    let k = 0;
-    for (let b = 0; b < NB; b++) {
-      for (let a = 0; a < NA; a++) {
-        const i = b * (NA + 1) + a;
-        if (arr[i * 4 + 3] + arr[(i + 1) * 4 + 3] + arr[(i + NA + 1) * 4 + 3] + arr[(i + NA + 2) * 4 + 3] === 0) continue;
-        ia[k++] = i; ia[k++] = i + 1; ia[k++] = i + NA + 1;
-        ia[k++] = i + 1; ia[k++] = i + NA + 2; ia[k++] = i + NA + 1;
-      }
-    }
+    const k = tintIndices((v) => arr[v * 4 + 3] > 0, NA, NB, idx.array as Uint32Array);
     idx.needsUpdate = true;
     objs.mesh.geometry.setDrawRange(0, k);
     if (env.horizonMask?.length) {

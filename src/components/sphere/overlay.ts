@@ -126,17 +126,102 @@ const FONTS: Record<LabelKind, string> = {
   comment: '600 11px "Space Grotesk", system-ui, sans-serif',
 };
 
+/** Font sizes of FONTS, CSS px (the height of a label's box). */
+const FONT_PX: Record<LabelKind, number> = { cardinal: 18, ref: 11, star: 11, body: 13, grid: 10, target: 12, pin: 12, comment: 11 };
+
 const scratch = new THREE.Vector3();
+
+/** Which label wins a place when two would overlap: lower first. Labels on the far side of the sphere come last. */
+export const LABEL_PRIORITY: Record<LabelKind, number> = { cardinal: 0, target: 1, body: 2, comment: 3, pin: 4, ref: 5, star: 6, grid: 7 };
+const FAR = 10;
+
+/** A label placed on screen (CSS pixels). */
+export interface PlacedLabel {
+  item: LabelItem;
+  sx: number;
+  sy: number;
+  far: boolean;
+  /** Text drawn (false: only the marker, the name would overlap a label of higher priority). */
+  text: boolean;
+}
+
+/** Axis-aligned box of a label's text, CSS pixels: where it is drawn by drawOverlay. */
+export function labelBox(it: LabelItem, sx: number, sy: number, width: number): [number, number, number, number] {
+  const size = FONT_PX[it.kind];
+  if (it.kind === 'cardinal') return [sx - width / 2, sy - 14 - size / 2, sx + width / 2, sy - 14 + size / 2];
+  const dx = markerOffset(it);
+  const ty = it.marker === 'comment' ? sy - 12 : sy - 1;
+  return [sx + dx, ty - size / 2, sx + dx + width, ty + size / 2];
+}
+
+function markerOffset(it: LabelItem): number {
+  switch (it.marker) {
+    case 'ring':
+      return 11;
+    case 'comment':
+      return 19;
+    case 'dot':
+    case 'cross':
+      return 7;
+    default:
+      return it.kind === 'cardinal' ? 0 : 6;
+  }
+}
+
+/**
+ * Decides which names are written: in priority order (cardinal points, targets, bodies, comments, pins,
+ * reference points, stars, grid numbers; the near side of the sphere before the far side), a name is
+ * written only where it does not overlap one already placed (2 px apart). Markers are always drawn.
+ * Pure: `measure(item)` gives the text width in CSS pixels.
+ */
+export function declutter(placed: PlacedLabel[], measure: (it: LabelItem) => number): PlacedLabel[] {
+  const order = placed
+    .map((p, i) => ({ p, i, k: LABEL_PRIORITY[p.item.kind] + (p.far ? FAR : 0) - (p.item.bold ? 1 : 0) }))
+    .sort((a, b) => a.k - b.k || a.i - b.i);
+  const boxes: number[] = [];
+  const pad = 2;
+  for (const { p } of order) {
+    const [x0, y0, x1, y1] = labelBox(p.item, p.sx, p.sy, measure(p.item));
+    let free = true;
+    for (let j = 0; j < boxes.length; j += 4) {
+      if (x0 - pad < boxes[j + 2] && x1 + pad > boxes[j] && y0 - pad < boxes[j + 3] && y1 + pad > boxes[j + 1]) {
+        free = false;
+        break;
+      }
+    }
+    p.text = free;
+    if (free) boxes.push(x0, y0, x1, y1);
+  }
+  return order.map((o) => o.p);
+}
+
+/** Text widths by font and text (the same names come back every frame). */
+const widths = new Map<string, number>();
+function measureWith(ctx: CanvasRenderingContext2D) {
+  return (it: LabelItem) => {
+    const key = it.kind + '\u0000' + it.text;
+    let w = widths.get(key);
+    if (w === undefined) {
+      ctx.font = FONTS[it.kind];
+      w = ctx.measureText(it.text).width;
+      if (widths.size > 5000) widths.clear();
+      widths.set(key, w);
+    }
+    return w;
+  };
+}
 
 /**
  * Draws the labels for the camera. `hideBelowHorizon`: in the Observer view the ground hides what is below.
- * `t` (0 Observer … 1 Sphere) dims labels on the far side of the sphere.
+ * `t` (0 Observer … 1 Sphere) dims labels on the far side of the sphere. Overlapping names are thinned out
+ * by `declutter`; returns how many names were written.
  */
-export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: number, dpr: number, camera: THREE.Camera, items: LabelItem[], hideBelowHorizon: boolean, t: number) {
+export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: number, dpr: number, camera: THREE.Camera, items: LabelItem[], hideBelowHorizon: boolean, t: number): number {
   ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
   ctx.clearRect(0, 0, cssW, cssH);
   ctx.textBaseline = 'middle';
   const camPos = camera.position;
+  const placed: PlacedLabel[] = [];
   for (const it of items) {
     if (hideBelowHorizon && it.y < -0.8 && it.kind !== 'cardinal') continue;
     scratch.set(it.x, it.y, it.z).applyMatrix4(camera.matrixWorldInverse);
@@ -146,18 +231,25 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: n
     const sx = (scratch.x * 0.5 + 0.5) * cssW;
     const sy = (-scratch.y * 0.5 + 0.5) * cssH;
     const far = t > 0.5 && it.x * camPos.x + it.y * camPos.y + it.z * camPos.z < 0;
-    ctx.globalAlpha = far ? 0.45 : 1;
-    ctx.font = FONTS[it.kind];
-    ctx.fillStyle = it.color;
-    ctx.strokeStyle = it.color;
-    let dx = 7;
+    placed.push({ item: it, sx, sy, far, text: true });
+  }
+  let written = 0;
+  let font = '', fill = '', alpha = -1;
+  for (const { item: it, sx, sy, far, text } of declutter(placed, measureWith(ctx))) {
+    if (!text && it.marker === 'none') continue;
+    const a = far ? 0.45 : 1;
+    if (a !== alpha) ctx.globalAlpha = alpha = a;
+    if (FONTS[it.kind] !== font) ctx.font = font = FONTS[it.kind];
+    if (it.color !== fill) {
+      ctx.fillStyle = ctx.strokeStyle = fill = it.color;
+    }
+    const dx = markerOffset(it);
     switch (it.marker) {
       case 'ring':
         ctx.lineWidth = it.bold ? 2.5 : 1.6;
         ctx.beginPath();
         ctx.arc(sx, sy, 7, 0, Math.PI * 2);
         ctx.stroke();
-        dx = 11;
         break;
       case 'dot':
         ctx.beginPath();
@@ -183,11 +275,10 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: n
         ctx.lineTo(sx - 2, sy - 7);
         ctx.closePath();
         ctx.fill();
-        dx = 19;
         break;
-      default:
-        dx = it.kind === 'cardinal' ? 0 : 6;
     }
+    if (!text) continue;
+    written++;
     if (it.kind === 'cardinal') {
       ctx.textAlign = 'center';
       ctx.lineWidth = 3;
@@ -195,6 +286,7 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: n
       ctx.strokeText(it.text, sx, sy - 14);
       ctx.fillText(it.text, sx, sy - 14);
       ctx.textAlign = 'left';
+      fill = ''; // the outline changed the stroke style
     } else {
       // No text outline for the many small labels: stroking text is slow on a software rasteriser.
       const ty = it.marker === 'comment' ? sy - 12 : sy - 1;
@@ -202,4 +294,5 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: n
     }
   }
   ctx.globalAlpha = 1;
+  return written;
 }

@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import * as sky from '../../../src/lib/sky';
 import {
   altAzToEnu, angleDeg, buildGrid, enuListToWorld, enuToAltAz, enuToWorld, greatCircle, raySphereDirection, ringNormal, ringPlanarity,
-  smallCircle, SPHERE_RADIUS, worldToEnu, formatHours, formatDms, compassWord,
+  smallCircle, SPHERE_RADIUS, worldToEnu, formatHours, formatDms, compassWord, envelopeShell, envelopeTintFace, tintIndices,
 } from '../../../src/components/sphere/geometry';
 import { SIDEREAL_PER_SOLAR, SIDEREAL_DAY_MS, fromLocalInputValue, toLocalInputValue, wallTimeToUtc, zoneOffsetMinutes } from '../../../src/components/sphere/time';
 
@@ -192,5 +192,75 @@ describe('formatting', () => {
     expect(compassWord(0)).toBe('north');
     expect(compassWord(225)).toBe('southwest');
     expect(compassWord(350)).toBe('north');
+  });
+});
+
+describe('envelope tint shell', () => {
+  // three.js draws a triangle's front face where its vertices wind counter-clockwise, i.e. where the normal
+  // (v1 − v0) × (v2 − v0) points towards the viewer (OpenGL convention, common practice).
+  const { positions, indices } = envelopeShell(120, 45, SPHERE_RADIUS * 0.99);
+  it('covers the visible hemisphere on a sphere of the given radius', () => {
+    expect(positions.length / 3).toBe(121 * 46);
+    expect(indices.length).toBe(120 * 45 * 6);
+    for (let i = 0; i < positions.length; i += 3) {
+      expect(Math.hypot(positions[i], positions[i + 1], positions[i + 2])).toBeCloseTo(99, 4); // Float32 vertices
+      expect(positions[i + 1]).toBeGreaterThanOrEqual(-1e-9); // world y = up: nothing below the horizon
+    }
+  });
+  it('front faces look inwards, towards the observer at the centre', () => {
+    let inward = 0;
+    for (let t = 0; t < indices.length; t += 3) {
+      const p = [0, 1, 2].map((j) => [positions[indices[t + j] * 3], positions[indices[t + j] * 3 + 1], positions[indices[t + j] * 3 + 2]]);
+      const u = p[1].map((x, i) => x - p[0][i]), v = p[2].map((x, i) => x - p[0][i]);
+      const n = [u[1] * v[2] - u[2] * v[1], u[2] * v[0] - u[0] * v[2], u[0] * v[1] - u[1] * v[0]];
+      const area = Math.hypot(n[0], n[1], n[2]);
+      if (area < 1e-9) continue; // the cells at the zenith collapse to a point
+      const c = [0, 1, 2].map((i) => (p[0][i] + p[1][i] + p[2][i]) / 3);
+      // The observer sits at the origin: a front face seen from there has its normal pointing at it.
+      expect(n[0] * -c[0] + n[1] * -c[1] + n[2] * -c[2]).toBeGreaterThan(0);
+      inward++;
+    }
+    expect(inward).toBeGreaterThan(120 * 44 * 2);
+  });
+  it('draws the inner face from inside the shell and the outer face from outside', () => {
+    expect(envelopeTintFace(0, 99)).toBe('inner'); // Observer view: camera at the observer
+    expect(envelopeTintFace(330, 99)).toBe('outer'); // Sphere view: camera 330 units out
+  });
+});
+
+describe('envelope tint triangles', () => {
+  const NA = 120, NB = 45, row = NA + 1;
+  // Forbidden: below 20° altitude, plus a blob — an invented envelope, shaped like the demo's.
+  const forbidden = (v: number) => {
+    const a = v % row, b = Math.floor(v / row);
+    return b < 10 || ((a - 30) ** 2 + (b - 25) ** 2 < 120) || (a * 7 + b * 3) % 97 === 0;
+  };
+  const out = new Uint32Array(NA * NB * 6);
+  const k = tintIndices(forbidden, NA, NB, out, 6);
+  const cover = new Map<number, number>();
+  const quads: { a: number; b0: number; b1: number }[] = [];
+  for (let t = 0; t < k; t += 6) {
+    const i0 = out[t], j0 = out[t + 2];
+    const q = { a: i0 % row, b0: Math.floor(i0 / row), b1: Math.floor(j0 / row) };
+    quads.push(q);
+    // Same winding as the full shell: (i0, i0+1, j0), (i0+1, j0+1, j0).
+    expect([out[t + 1], out[t + 3], out[t + 4], out[t + 5]]).toEqual([i0 + 1, i0 + 1, j0 + 1, j0]);
+    for (let b = q.b0; b < q.b1; b++) cover.set(b * NA + q.a, (cover.get(b * NA + q.a) ?? 0) + 1);
+  }
+  it('covers exactly the cells with a forbidden corner, each once', () => {
+    for (let b = 0; b < NB; b++) {
+      for (let a = 0; a < NA; a++) {
+        const i = b * row + a;
+        const any = forbidden(i) || forbidden(i + 1) || forbidden(i + row) || forbidden(i + row + 1);
+        expect(cover.get(b * NA + a) ?? 0).toBe(any ? 1 : 0);
+      }
+    }
+  });
+  it('merges only wholly forbidden cells, at most 6 to a quad, and needs far fewer triangles', () => {
+    for (const q of quads) {
+      expect(q.b1 - q.b0).toBeLessThanOrEqual(6);
+      if (q.b1 - q.b0 > 1) for (let b = q.b0; b <= q.b1; b++) expect(forbidden(b * row + q.a) && forbidden(b * row + q.a + 1)).toBe(true);
+    }
+    expect(quads.length).toBeLessThan(cover.size / 2);
   });
 });
