@@ -448,6 +448,10 @@ export default function SkyCanvas({ handles, onPickPoint }: SkyCanvasProps) {
       camera={{ fov: handles.cam.fov, near: 0.1, far: 2000, position: [0, 0, 0] }}
       onCreated={(s) => {
         s.gl.setClearColor('#05070d');
+        // three.js asks the driver for every shader's compile status right after linking, which waits for
+        // the compile (a software renderer compiles slowly); its documentation advises turning this check
+        // off in production. `?shadercheck=1` turns it back on when working on a shader.
+        s.gl.debug.checkShaderErrors = new URLSearchParams(location.search).get('shadercheck') === '1';
         invalidateRef.current = s.invalidate;
         window.__armillaStats ??= { frames: 0, firstFrameAt: null, startedAt: performance.now(), lastFrameAt: 0, updateMs: 0, renderMs: 0, overlayMs: 0 };
       }}
