@@ -285,6 +285,31 @@ describe.skipIf(!haveBrowser)('sky view in the browser', () => {
     expect(await r.text()).toContain('time:');
   });
 
+  it('without WebGL, says so in place of the drawing and keeps the text alternative and time controls', async () => {
+    const { chromium } = await import('playwright-core');
+    const bare = await chromium.launch({ executablePath: CHROMIUM, headless: true, args: ['--disable-3d-apis', '--no-sandbox', '--no-first-run'] });
+    try {
+      const page = await bare.newPage({ viewport: { width: 1280, height: 900 } });
+      const pageErrors: string[] = [];
+      page.on('pageerror', (e) => pageErrors.push(e.message));
+      await page.goto(`${server.url}/sky?time=${NIGHT}`);
+      await page.locator('[data-testid=sky-no-webgl]').waitFor({ timeout: 30_000 });
+      expect(await page.locator('[data-testid=sky-no-webgl]').textContent()).toContain('could not start WebGL');
+      // The live summary still describes the sky, and time still steps: +1 h of clock time is +1.0027379 h of
+      // sidereal time (24 h / 23h56m04.0905s; common practice).
+      await expect.poll(async () => (await page.locator('[data-testid=sky-summary]').textContent()) ?? '', { timeout: 10_000 }).toMatch(/Sun|Moon/);
+      const lst0 = parseHms((await page.locator('[data-testid=time-lst]').textContent())!);
+      await page.click('[data-testid=step-plus-hour]');
+      await expect.poll(async () => parseHms((await page.locator('[data-testid=time-lst]').textContent())!)).not.toBe(lst0);
+      const lst1 = parseHms((await page.locator('[data-testid=time-lst]').textContent())!);
+      expect(((lst1 - lst0 + 24) % 24) * 3600).toBeCloseTo(1.0027379 * 3600, 0);
+      await page.screenshot({ path: `${OUT}/sky-no-webgl.png` });
+      expect(pageErrors).toEqual([]);
+    } finally {
+      await bare.close();
+    }
+  });
+
   it('logged no console errors', () => {
     expect(errors).toEqual([]);
   });

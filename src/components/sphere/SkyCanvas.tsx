@@ -399,10 +399,18 @@ function Layers() {
  * render without antialiasing there. `?aa=1` / `?aa=0` in the page URL overrides.
  */
 let aaChoice: boolean | null = null;
+const RENDERER_KEY = 'armilla.webglRenderer';
 function wantAntialias(): boolean {
   if (aaChoice !== null) return aaChoice;
   const q = new URLSearchParams(location.search).get('aa');
   if (q === '0' || q === '1') return (aaChoice = q === '1');
+  // The probe costs a second WebGL context (50–180 ms on a software renderer): remembered per browser.
+  try {
+    const seen = localStorage.getItem(RENDERER_KEY);
+    if (seen === 'hardware' || seen === 'software') return (aaChoice = seen === 'hardware');
+  } catch {
+    /* storage blocked: probe every time */
+  }
   try {
     const c = document.createElement('canvas');
     const g = c.getContext('webgl2') ?? c.getContext('webgl');
@@ -410,8 +418,9 @@ function wantAntialias(): boolean {
     const name = g && ext ? String(g.getParameter(ext.UNMASKED_RENDERER_WEBGL)) : '';
     g?.getExtension('WEBGL_lose_context')?.loseContext();
     aaChoice = !/swiftshader|llvmpipe|software/i.test(name);
+    if (name) localStorage.setItem(RENDERER_KEY, aaChoice ? 'hardware' : 'software');
   } catch {
-    aaChoice = true;
+    aaChoice ??= true;
   }
   return aaChoice;
 }

@@ -2,7 +2,7 @@
  * <SkyView>: the celestial-sphere view of a scene (Observer view and Sphere view), with its legend, time bar,
  * readouts, selection card, text alternative, solar caution and PNG snapshot. Mount with client:only="react".
  */
-import { useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { Component, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
 import { DEFAULT_LAYERS, type Layers } from '../../lib/scenes/scene';
 import { type CamState, type CommentAnchor, type PinLike, type UiState, type ViewHandles, ViewContext } from './context';
 import * as engine from './engine';
@@ -14,6 +14,29 @@ import SkyCanvas from './SkyCanvas';
 import { composeSnapshot } from './snapshot';
 import { Clock, createStore, useStore } from './store';
 import { formatOffset, formatUtc, formatWall, isoUtc, SIDEREAL_DAY_MS } from './time';
+
+/**
+ * Keeps the page working when the browser gives no WebGL (blocked, or no GPU and no software fallback):
+ * the drawing is replaced by a notice, and the summary, readouts, cards and time controls stay.
+ */
+class DrawingGuard extends Component<{ children: ReactNode }, { failed: string | null }> {
+  override state = { failed: null as string | null };
+  static getDerivedStateFromError(e: unknown) {
+    return { failed: e instanceof Error ? e.message : String(e) };
+  }
+  override render() {
+    if (this.state.failed === null) return this.props.children;
+    return (
+      <div role="status" data-testid="sky-no-webgl" className="absolute inset-0 flex items-center justify-center p-6 text-center text-sm text-slate-300">
+        <p>
+          This browser could not start WebGL, so the sky is not drawn here. The summary of what is up, the time
+          controls, the object cards and the keyboard still work. Turning on hardware acceleration (or, where
+          there is no GPU, the browser's software WebGL) brings the drawing back.
+        </p>
+      </div>
+    );
+  }
+}
 
 export interface SceneLike {
   title: string;
@@ -312,7 +335,9 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
               onKeyDown={onKey}
               data-testid="sky-canvas"
             >
-              <SkyCanvas handles={handles} onPickPoint={onPickPoint} />
+              <DrawingGuard>
+                <SkyCanvas handles={handles} onPickPoint={onPickPoint} />
+              </DrawingGuard>
               <canvas ref={overlayRef} aria-hidden="true" className="pointer-events-none absolute inset-0 h-full w-full" />
             </div>
             {scene.steps && scene.steps.length > 0 && (
