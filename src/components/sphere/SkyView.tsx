@@ -19,13 +19,13 @@ import { formatOffset, formatUtc, formatWall, isoUtc, SIDEREAL_DAY_MS } from './
  * Keeps the page working when the browser gives no WebGL (blocked, or no GPU and no software fallback):
  * the drawing is replaced by a notice, and the summary, readouts, cards and time controls stay.
  */
-class DrawingGuard extends Component<{ children: ReactNode }, { failed: string | null }> {
-  override state = { failed: null as string | null };
-  static getDerivedStateFromError(e: unknown) {
-    return { failed: e instanceof Error ? e.message : String(e) };
+class DrawingGuard extends Component<{ children: ReactNode }, { failed: boolean }> {
+  override state = { failed: false };
+  static getDerivedStateFromError() {
+    return { failed: true };
   }
   override render() {
-    if (this.state.failed === null) return this.props.children;
+    if (!this.state.failed) return this.props.children;
     return (
       <div role="status" data-testid="sky-no-webgl" className="absolute inset-0 flex items-center justify-center p-6 text-center text-sm text-slate-300">
         <p>

@@ -145,13 +145,18 @@ export interface PlacedLabel {
   text: boolean;
 }
 
+/** Where a label's text is written for a marker at (sx, sy): x of its left edge (centre for cardinal points), y of its middle. */
+function textAnchor(it: LabelItem, sx: number, sy: number): [number, number] {
+  if (it.kind === 'cardinal') return [sx, sy - 14];
+  return [sx + markerOffset(it), it.marker === 'comment' ? sy - 12 : sy - 1];
+}
+
 /** Axis-aligned box of a label's text, CSS pixels: where it is drawn by drawOverlay. */
 export function labelBox(it: LabelItem, sx: number, sy: number, width: number): [number, number, number, number] {
-  const size = FONT_PX[it.kind];
-  if (it.kind === 'cardinal') return [sx - width / 2, sy - 14 - size / 2, sx + width / 2, sy - 14 + size / 2];
-  const dx = markerOffset(it);
-  const ty = it.marker === 'comment' ? sy - 12 : sy - 1;
-  return [sx + dx, ty - size / 2, sx + dx + width, ty + size / 2];
+  const half = FONT_PX[it.kind] / 2;
+  const [tx, ty] = textAnchor(it, sx, sy);
+  const x0 = it.kind === 'cardinal' ? tx - width / 2 : tx;
+  return [x0, ty - half, x0 + width, ty + half];
 }
 
 function markerOffset(it: LabelItem): number {
@@ -243,7 +248,6 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: n
     if (it.color !== fill) {
       ctx.fillStyle = ctx.strokeStyle = fill = it.color;
     }
-    const dx = markerOffset(it);
     switch (it.marker) {
       case 'ring':
         ctx.lineWidth = it.bold ? 2.5 : 1.6;
@@ -279,18 +283,18 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, cssW: number, cssH: n
     }
     if (!text) continue;
     written++;
+    const [tx, ty] = textAnchor(it, sx, sy);
     if (it.kind === 'cardinal') {
       ctx.textAlign = 'center';
       ctx.lineWidth = 3;
       ctx.strokeStyle = 'rgba(5,7,13,0.85)';
-      ctx.strokeText(it.text, sx, sy - 14);
-      ctx.fillText(it.text, sx, sy - 14);
+      ctx.strokeText(it.text, tx, ty);
+      ctx.fillText(it.text, tx, ty);
       ctx.textAlign = 'left';
       fill = ''; // the outline changed the stroke style
     } else {
       // No text outline for the many small labels: stroking text is slow on a software rasteriser.
-      const ty = it.marker === 'comment' ? sy - 12 : sy - 1;
-      ctx.fillText(it.text, sx + dx, ty);
+      ctx.fillText(it.text, tx, ty);
     }
   }
   ctx.globalAlpha = 1;
