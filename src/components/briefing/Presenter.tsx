@@ -4,7 +4,7 @@
  * Follow mode: the view follows the presenter's server-sent events.
  */
 import { useCallback, useEffect, useRef, useState, type ReactNode } from 'react';
-import type { PresenterOut } from '../../lib/client/types';
+import type { PresenterOut } from '../../lib/contracts/presenter';
 import { apiPost } from '../../lib/client/api';
 import { sceneAtStep, formatInZone, type SceneLike } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';

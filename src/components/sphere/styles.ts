@@ -2,7 +2,7 @@
  * Armilla's own look for the sphere: each great circle has a colour AND a line pattern, so the rings
  * read in greyscale and for colour-blind viewers. Patterns are on/off lengths in CSS pixels.
  */
-import type { LayerKey } from '../../lib/scenes/scene';
+import type { LayerKey } from '../../lib/contracts/scene-doc';
 
 export type CircleKey = 'horizon' | 'equator' | 'ecliptic' | 'meridian' | 'primeVertical' | 'galactic';
 

@@ -4,7 +4,7 @@
  * they are moved linearly to the instant observed (ample for planning: the neglected terms are
  * second order in μΔt and below 0.1″ for any star over a century).
  */
-import type { Site, Target as SceneTarget } from '../scenes/scene';
+import type { Site, Target as SceneTarget } from '../contracts/scene-doc';
 import { findByHr, loadCatalogue, type SiteInput, type Target as SkyTarget } from '../sky';
 
 const JULIAN_YEAR_MS = 365.25 * 86400000;

@@ -6,7 +6,7 @@
  * then applies the engine's own N·P·B and Earth rotation (apparent.ts) so bodies and stars share one
  * frame. Light deflection is neglected for bodies (< 0.01″ except grazing the Sun).
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 import { DEG, RAD, wrap360 } from './math';
 import { KM_PER_AU, MOON_RADIUS_KM } from './constants';
 import { addDiurnalAberration, describeEnu, skyFrame, type HorizontalPlace, type SkyFrame } from './apparent';

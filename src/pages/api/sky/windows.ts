@@ -1,7 +1,7 @@
 /** POST /api/sky/windows — visibility windows of targets inside an envelope (API contract, fixed). */
 import { clientAddress, json, parseJson, route } from '../../../lib/server/http';
 import { rateLimit } from '../../../lib/server/rate-limit';
-import { windowsBodySchema, windowsResponse } from '../../../lib/sky/api';
+import { windowsBodySchema, windowsResponse } from '../../../lib/server/sky-api';
 
 export const POST = route(async (ctx) => {
   const body = await parseJson(windowsBodySchema, ctx.request);

@@ -1,12 +1,12 @@
 import { db } from '../../../../lib/server/db';
 import { forbidden, jsonText, route } from '../../../../lib/server/http';
 import { resolveLink } from '../../../../lib/server/links';
-import { publicSceneJson } from '../../../../lib/server/scenes.server';
+import { publicSceneJson } from '../../../../lib/server/scene-service';
 
 /**
  * No account needed: `{scene, role}` read-only; 404 for unknown, revoked or expired tokens.
  * The hot read path of a presentation: the link is checked against the database on every request,
- * the scene's serialised answer comes from a cache keyed by the scene's state (scenes.server.ts).
+ * the scene's serialised answer comes from a cache keyed by the scene's state (scene-service.ts).
  */
 export const GET = route(async ({ params }) => {
   const link = await resolveLink(db, params.token!, true);

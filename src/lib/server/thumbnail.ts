@@ -6,12 +6,12 @@
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { User } from 'lucia';
-import type { DbOrTx } from '../server/db/client';
-import { scenes } from '../server/db/schema';
-import { audit } from '../server/audit';
-import { HttpError, notFound } from '../server/http';
-import { sceneFor, writeTx } from '../server/scenes.server';
-import { readCapped } from '../imports/upload';
+import type { DbOrTx } from './db/client';
+import { scenes } from './db/schema';
+import { audit } from './audit';
+import { HttpError, notFound } from './http';
+import { sceneFor, writeTx } from './scene-service';
+import { readCapped } from './upload';
 import { isPng } from '../png';
 
 export { isPng };

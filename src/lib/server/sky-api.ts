@@ -4,12 +4,12 @@
  * routes in src/pages/api/sky/ only parse, rate-limit and call these.
  */
 import { z } from 'zod';
-import { BODY_NAMES, type BodyName } from './bodies';
-import { observe } from './observe';
-import { skyEvents } from './events';
-import { visibilityWindows, type WindowTarget } from './windows';
-import { envelopeSchema } from './envelope';
-import type { SiteInput } from './frames';
+import { BODY_NAMES, type BodyName } from '../sky/bodies';
+import { observe } from '../sky/observe';
+import { skyEvents } from '../sky/events';
+import { visibilityWindows, type WindowTarget } from '../sky/windows';
+import { envelopeSchema } from '../contracts/envelope';
+import type { SiteInput } from '../sky/frames';
 
 export const MAX_SPAN_DAYS = 31;
 export const MAX_TARGETS = 2000;

@@ -1,11 +1,11 @@
 /** POST /api/scenes/import: an `armilla-scene` file → a new scene in the caller's team. */
 import type { User } from 'lucia';
 import type { ZodError } from 'zod';
-import type { DbOrTx } from '../server/db/client';
-import { fieldOf, HttpError } from '../server/http';
-import { createScene } from '../server/scenes.server';
-import { readCapped, readUpload } from '../imports/upload';
-import { sceneFileSchema } from './scene-json';
+import type { DbOrTx } from '../db/client';
+import { fieldOf, HttpError } from '../http';
+import { createScene } from '../scene-service';
+import { readCapped, readUpload } from '../upload';
+import { sceneFileSchema } from '../../exports/scene-json';
 
 export const MAX_SCENE_FILE_BYTES = 5 * 1024 * 1024;
 
