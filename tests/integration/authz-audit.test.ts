@@ -313,6 +313,10 @@ const TABLE: Record<string, Entry> = {
   'GET /api/shared/[token]/export.vot': { expect: ALL(200) },
   'GET /api/shared/[token]/export-windows.csv': { expect: ALL(200) },
 
+  // place search and time-zone lookup: no account needed
+  'GET /api/places': { expect: ALL(200), req: () => ({ path: '/api/places?q=tucson&limit=3' }) },
+  'GET /api/places/zone': { expect: ALL(200), req: () => ({ path: '/api/places/zone?lat=32.22&lon=-110.93' }) },
+
   // sky computation: no account needed
   'GET /api/sky/observe': { expect: ALL(200), req: () => ({ path: '/api/sky/observe?lat=40.4&lon=-3.7&height=650&time=2026-03-20T19:30:00Z&body=moon' }) },
   'GET /api/sky/events': {
