@@ -44,7 +44,7 @@ export async function getThumbnail(db: DbOrTx, user: User, sceneId: string, ifNo
     const headers = { 'content-type': 'image/png', 'cache-control': 'private, no-cache', etag };
     if (ifNoneMatch === etag) return new Response(null, { status: 304, headers });
     const { png } = skyThumbnail(scene);
-    return new Response(png, { headers: { ...headers, 'content-length': String(png.length) } });
+    return new Response(new Uint8Array(png), { headers: { ...headers, 'content-length': String(png.length) } });
   }
   const bytes = new Uint8Array(row.thumbnail);
   const etag = `"${createHash('sha256').update(bytes).digest('base64url').slice(0, 22)}"`;
