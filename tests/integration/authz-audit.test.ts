@@ -296,6 +296,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/scenes/[id]/export.json': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/targets.vot': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/windows.csv': { expect: team('viewer', 200) },
+  'GET /api/scenes/[id]/night': { expect: team('viewer', 200) },
 
   // share links: the token is the credential, whoever holds it (account or not) gets the link's role
   'GET /api/shared/[token]': { expect: ALL(200) },
@@ -313,6 +314,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/shared/[token]/export.json': { expect: ALL(200) },
   'GET /api/shared/[token]/export.vot': { expect: ALL(200) },
   'GET /api/shared/[token]/export-windows.csv': { expect: ALL(200) },
+  'GET /api/shared/[token]/night': { expect: ALL(200) },
 
   // personal API tokens: each account manages its own (another member's token id answers 404)
   'GET /api/tokens': { expect: signedIn(200) },
