@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { knownKeysOnly } from './known-keys';
 import { isPng } from '../png';
+import { boundedArray } from '../bounded-array';
 import {
   cameraSchema,
   isoUtc,
@@ -27,9 +28,7 @@ export { knownKeysOnly };
 
 /** Ids inside a list (targets, pins, steps) must be unique: steps, comments and pins point at them. */
 function uniqueIds<T extends { id: string }>(item: z.ZodType<T, z.ZodTypeDef, unknown>, max: number) {
-  return z
-    .array(item)
-    .max(max)
+  return boundedArray(item, max)
     .superRefine((list, ctx) => {
       const seen = new Set<string>();
       list.forEach((x, i) => {

@@ -6,7 +6,7 @@ import { and, eq, gt, isNull, ne } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import { z } from 'zod';
 import { audit } from './audit';
-import { hashToken, newToken } from './tokens';
+import { hashToken, newToken } from './auth/secret-token';
 import { dummyHash, hashPassword, verifyPassword } from './auth/password';
 import type { DbOrTx } from './db/client';
 import { memberships, passwordResets, rateLimits, sessions, teams, users } from './db/schema';

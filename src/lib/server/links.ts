@@ -3,7 +3,7 @@
  * stored, and a request's token is found by hashing it and looking the hash up (no string compare
  * of secrets, nothing usable in a database leak).
  */
-import { hashToken } from './tokens';
+import { hashToken } from './auth/secret-token';
 import { and, asc, eq, isNull, lt, or, sql, type Placeholder } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/libsql';
 import { preparedReadsOf } from './db/prepared';

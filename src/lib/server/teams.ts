@@ -13,7 +13,7 @@ import { HttpError, notFound } from './http';
 import { authorize } from './policy';
 import { linkOrigin, sendMail } from './mail';
 import { invitationMail } from './mail/templates';
-import { hashToken, newToken } from './tokens';
+import { hashToken, newToken } from './auth/secret-token';
 
 export interface TeamSummary {
   id: string;
