@@ -60,6 +60,8 @@ export interface SkyViewProps {
   onSnapshot?: (dataUrl: string) => void;
   /** Height of the sky canvas, CSS (default 70vh). */
   height?: string;
+  /** The view's instant as it moves (time bar, playing, steps), at most once a frame: keeps the night chart's cursor in step. */
+  onTimeChange?: (ms: number) => void;
 }
 
 const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text-slate-100 hover:bg-slate-700 focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400';
@@ -70,7 +72,7 @@ function siteInput(s: SceneLike['site']): engine.SiteInput {
   return { latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0 };
 }
 
-export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, height = '70vh' }: SkyViewProps) {
+export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, height = '70vh', onTimeChange }: SkyViewProps) {
   const timeZone = scene.site.timeZone ?? 'UTC';
   const handles = useMemo<ViewHandles>(() => {
     const ms = Date.parse(scene.time);
@@ -141,6 +143,22 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
     store.set({ pins: scene.pins ?? [] });
     hud.invalidate?.();
   }, [scene.envelope, scene.targets, scene.pins]);
+  const timeListener = useRef(onTimeChange);
+  timeListener.current = onTimeChange;
+  useEffect(() => {
+    let frame = 0;
+    const off = clock.subscribe(() => {
+      if (frame || !timeListener.current) return;
+      frame = requestAnimationFrame(() => {
+        frame = 0;
+        timeListener.current?.(clock.ms);
+      });
+    });
+    return () => {
+      off();
+      if (frame) cancelAnimationFrame(frame);
+    };
+  }, []);
   useEffect(() => {
     store.set({ comments: comments ?? [] });
     hud.invalidate?.();
