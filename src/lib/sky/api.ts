@@ -9,6 +9,7 @@ import { observe } from './observe';
 import { skyEvents } from './events';
 import { visibilityWindows, type WindowTarget } from './windows';
 import { envelopeSchema } from './envelope';
+import { boundedArray } from '../bounded-array';
 import { windowsGridStepSec } from './night';
 import type { SiteInput } from './frames';
 
@@ -103,7 +104,7 @@ export const windowsBodySchema = z
   .object({
     site: z.object({ lat: num(-90, 90, LAT), lon: num(-180, 360, LON), height: num(-500, 10000, HEIGHT).optional().default(0) }),
     envelope: envelopeSchema,
-    targets: z.array(windowTargetSchema).max(MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
+    targets: boundedArray(windowTargetSchema, MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
     from: instant,
     to: instant,
   })
