@@ -23,6 +23,8 @@ import { Sky, shrinkPng, type PickedPoint } from './Sky';
 import { StepsEditor } from '../briefing/StepsEditor';
 import { FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
 import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+import { NightPanel } from '../night/NightPanel';
+import { chartComments, nightRevision } from '../night/mount';
 
 type Tab = 'scene' | 'steps' | 'review' | 'share' | 'history';
 const RANK: Record<Role, number> = { viewer: 0, reviewer: 1, editor: 2, owner: 3 };
@@ -99,6 +101,14 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
   const followedStep = following && follow.state ? scene.steps[follow.state.stepIndex] : undefined;
   const viewScene: SceneLike = following && follow.state ? sceneAtStep(like, followedStep, follow.state.time) : shownStep ? sceneAtStep(like, scene.steps.find((s) => s.id === shownStep)) : like;
   const viewEditable = canEdit && !shownStep && !following;
+  // The view's instant shared by the sphere and the night charts (null: the scene's or the step's time).
+  const [viewMs, setViewMs] = useState<number | null>(null);
+  useEffect(() => setViewMs(null), [viewScene.time]);
+  const skyScene = viewMs !== null ? { ...viewScene, time: new Date(viewMs).toISOString() } : viewScene;
+  const onNightCursor = (t: number, done: boolean) => {
+    setViewMs(t);
+    if (done && viewEditable) edit({ time: new Date(Math.round(t / 1000) * 1000).toISOString().replace('.000Z', 'Z') });
+  };
 
   const onPick = (p: PickedPoint) => {
     if (pinDraft) {
@@ -186,7 +196,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
       )}
       <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
         <div className="min-w-0" data-testid="sky">
-          <Sky scene={viewScene} edit={viewEditable} onChange={onViewChange} comments={markers} onPick={onPick} onSnapshot={canEdit ? setSnap : undefined} />
+          <Sky scene={skyScene} edit={viewEditable} onChange={onViewChange} comments={markers} onPick={onPick} onSnapshot={canEdit ? setSnap : undefined} onTimeChange={setViewMs} />
           {shownStep && (
             <p className="mt-2 text-sm text-brass-200">
               Showing a step.{' '}
@@ -234,6 +244,24 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
           </Section>
         </div>
       </div>
+      <Section title="Night">
+        <NightPanel
+          source={{ kind: 'scene', id: scene.id }}
+          timeZone={scene.site.timeZone ?? 'UTC'}
+          revision={nightRevision(scene)}
+          cursor={viewMs ?? Date.parse(viewScene.time)}
+          onCursor={onNightCursor}
+          comments={chartComments(comments.data ?? [])}
+          onPickComment={
+            canComment
+              ? (a) => {
+                  setAnchor(a);
+                  setTab('review');
+                }
+              : undefined
+          }
+        />
+      </Section>
       {presenting !== null && (
         <Presenter scene={like} startIndex={presenting} onClose={() => setPresenting(null)} broadcastUrl={canEdit ? `/api/scenes/${scene.id}/presenter` : null} renderSky={(s) => <Sky scene={s} height="100%" />} />
       )}

@@ -13,6 +13,8 @@ import { ExportPanel } from './ExportPanel';
 import { FollowBadge, useFollow } from '../briefing/Presenter';
 import { Markdown } from '../briefing/Markdown';
 import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+import { NightPanel } from '../night/NightPanel';
+import { chartComments, nightRevision } from '../night/mount';
 
 function Shared({ token, embed }: { token: string; embed: boolean }) {
   const q = useQuery({
@@ -25,6 +27,8 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const [stepIdx, setStepIdx] = useState<number | null>(null);
   const [picking, setPicking] = useState(false);
   const [anchor, setAnchor] = useState<Anchor | null>(null);
+  // The view's instant shared by the sphere and the night charts, for the scene/step time it was set against.
+  const [view, setView] = useState<{ ms: number; base: string } | null>(null);
   const [tab, setTab] = useState<'steps' | 'review'>(() => (typeof location !== 'undefined' && location.hash.startsWith('#comment-') ? 'review' : 'steps'));
   const reviewer = q.data?.role === 'reviewer' && !embed;
   const access: ReviewAccess = { kind: 'guest', token, canComment: true };
@@ -45,6 +49,9 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const idx = following && follow.state ? follow.state.stepIndex : stepIdx;
   const step = idx !== null ? scene.steps[idx] : undefined;
   const shown = following && follow.state ? sceneAtStep(like, step, follow.state.time) : sceneAtStep(like, step);
+  const viewMs = view && view.base === shown.time ? view.ms : null;
+  const sky = viewMs !== null ? { ...shown, time: new Date(viewMs).toISOString() } : shown;
+  const setViewMs = (ms: number) => setView({ ms, base: shown.time });
   const onPick = (p: PickedPoint) => {
     if (!picking) return;
     setAnchor(anchorFromPick(p));
@@ -103,7 +110,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
       )}
       <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_24rem]">
         <div className="min-w-0" data-testid="sky">
-          <Sky scene={shown} comments={markers} onPick={onPick} />
+          <Sky scene={sky} comments={markers} onPick={onPick} onTimeChange={setViewMs} />
           {step?.caption && (
             <div className="mt-3 rounded border border-ink-700 p-3">
               <Markdown source={step.caption} />
@@ -147,6 +154,24 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
           </Section>
         </div>
       </div>
+      <Section title="Night">
+        <NightPanel
+          source={{ kind: 'shared', token }}
+          timeZone={scene.site.timeZone ?? 'UTC'}
+          revision={nightRevision(scene)}
+          cursor={viewMs ?? Date.parse(shown.time)}
+          onCursor={(t) => setViewMs(t)}
+          comments={reviewer ? chartComments(comments.data ?? []) : []}
+          onPickComment={
+            reviewer
+              ? (a) => {
+                  setAnchor(a);
+                  setTab('review');
+                }
+              : undefined
+          }
+        />
+      </Section>
     </div>
   );
 }

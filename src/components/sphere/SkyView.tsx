@@ -60,7 +60,7 @@ export interface SkyViewProps {
   onSnapshot?: (dataUrl: string) => void;
   /** Height of the sky canvas, CSS (default 70vh). */
   height?: string;
-  /** The view's instant as it moves (time bar, playing, steps), at most once a frame: keeps the night chart's cursor in step. */
+  /** The view's instant as it moves (time bar, playing, steps), at most five times a second: keeps the night chart's cursor in step. */
   onTimeChange?: (ms: number) => void;
 }
 
@@ -146,17 +146,18 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
   const timeListener = useRef(onTimeChange);
   timeListener.current = onTimeChange;
   useEffect(() => {
-    let frame = 0;
+    // at most five times a second, and once more after the last change
+    let timer: ReturnType<typeof setTimeout> | null = null;
     const off = clock.subscribe(() => {
-      if (frame || !timeListener.current) return;
-      frame = requestAnimationFrame(() => {
-        frame = 0;
+      if (timer || !timeListener.current) return;
+      timer = setTimeout(() => {
+        timer = null;
         timeListener.current?.(clock.ms);
-      });
+      }, 200);
     });
     return () => {
       off();
-      if (frame) cancelAnimationFrame(frame);
+      if (timer) clearTimeout(timer);
     };
   }, []);
   useEffect(() => {

@@ -11,6 +11,6 @@ export const GET = route(async ({ locals, params, url }) => {
   const user = requireUser(locals);
   const q = parseQuery(nightQuerySchema, url);
   const scene = await sceneForMember(db, user, params.id!);
-  const data = nightAnswer(scene, q);
+  const data = await nightAnswer(scene, q, { key: `user:${user.id}`, who: 'member' });
   return svgResponse(altitudeChartSvg(data, scene.site.timeZone ?? 'UTC', Date.parse(q.at ?? scene.time)), 'night.svg');
 });

@@ -11,6 +11,6 @@ export const GET = route(async (ctx) => {
   const q = parseQuery(nightQuerySchema, ctx.url);
   const scene = await sceneForToken(db, ctx.params.token!);
   await rateLimit(`night:${clientAddress(ctx)}`, 120, 60);
-  const data = nightAnswer(scene, q);
+  const data = await nightAnswer(scene, q, { key: `addr:${clientAddress(ctx)}`, who: 'anonymous' });
   return svgResponse(altitudeChartSvg(data, scene.site.timeZone ?? 'UTC', Date.parse(q.at ?? scene.time)), 'night.svg');
 });
