@@ -66,6 +66,8 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
   const ticks = hourTicks(from, to, timeZone, (to - from) / 3600000 > 14 ? 2 : 1);
   const plotW = width - M.left - M.right, plotH = height - M.top - M.bottom;
   const text = c(SURFACE.text), muted = c(SURFACE.textMuted);
+  // the Moon's own ink is pale grey: on paper its curve and label take the dim label ink
+  const moonInk = ink === 'print' ? LABELS.labelDim.print : BODIES.moon.screen;
 
   const timeAt = (clientX: number) => {
     const r = svgRef.current!.getBoundingClientRect();
@@ -90,6 +92,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       return;
     }
     if (!onCursor) return;
+    e.preventDefault(); // no text selection while dragging
     e.currentTarget.setPointerCapture?.(e.pointerId);
     setDrag(true);
     onCursor(timeAt(e.clientX), false);
@@ -140,7 +143,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       </defs>
       <g data-part="daylight">
         {prepared.bands.map((b, i) => (
-          <rect key={i} x={x(b.start)} y={M.top} width={Math.max(0, x(b.end) - x(b.start))} height={plotH} fill={c(DAYLIGHT[b.key])} opacity={ink === 'print' ? 0.55 : 1}>
+          <rect key={i} x={x(b.start)} y={M.top} width={Math.max(0, x(b.end) - x(b.start))} height={plotH} fill={c(DAYLIGHT[b.key])} opacity={ink === 'print' ? 0.3 : 1}>
             <title>{`${DAYLIGHT[b.key].label} ${clock(b.start, timeZone)}–${clock(b.end, timeZone)}`}</title>
           </rect>
         ))}
@@ -190,7 +193,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       <g clipPath={`url(#${id}-clip)`} fill="none" strokeLinejoin="round" strokeLinecap="round">
         <g data-part="moon" aria-label={moonLabel}>
           {prepared.moon.map((r, i) => (
-            <path key={i} d={path(r.points) ?? ''} stroke={c(BODIES.moon)} strokeWidth={1.6} strokeDasharray="1 5" opacity={0.9} />
+            <path key={i} d={path(r.points) ?? ''} stroke={moonInk} strokeWidth={1.6} strokeDasharray="1 5" opacity={0.9} />
           ))}
         </g>
         {prepared.bodies.map((b) => (
@@ -246,7 +249,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
           if (top.altitude < 3) return null;
           const t = Date.parse(top.time);
           return (
-            <text x={Math.min(x(t) + 6, width - M.right - 4)} y={y(top.altitude) + 14} fill={c(BODIES.moon)} textAnchor={x(t) > width - M.right - 120 ? 'end' : 'start'} paintOrder="stroke" stroke={c(SURFACE.panel)} strokeWidth={3}>
+            <text x={Math.min(x(t) + 6, width - M.right - 4)} y={y(top.altitude) + 14} fill={moonInk} textAnchor={x(t) > width - M.right - 120 ? 'end' : 'start'} paintOrder="stroke" stroke={c(SURFACE.panel)} strokeWidth={3}>
               {moonLabel}
             </text>
           );

@@ -244,7 +244,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
           </Section>
         </div>
       </div>
-      <Section title="Night">
+      <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
         <NightPanel
           source={{ kind: 'scene', id: scene.id }}
           timeZone={scene.site.timeZone ?? 'UTC'}

@@ -154,7 +154,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
           </Section>
         </div>
       </div>
-      <Section title="Night">
+      <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
         <NightPanel
           source={{ kind: 'shared', token }}
           timeZone={scene.site.timeZone ?? 'UTC'}
