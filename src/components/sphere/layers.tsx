@@ -12,6 +12,7 @@ import { altAzToEnu, buildGrid, enuListToWorld, enuToWorld, envelopeShell, envel
 import { bodyMaterial, patternLineMaterial, starMaterial } from './materials';
 import { RING_SEGMENTS } from './model';
 import { CIRCLE_STYLES, COLORS, GRID_STYLES, type CircleKey } from './styles';
+import { PLAN_LINES, PLANET_TINTS } from '../../lib/style/palette';
 
 const R = SPHERE_RADIUS;
 
@@ -215,7 +216,7 @@ export function Stars({ limit }: { limit: number }) {
 }
 
 const BODY_COLORS: Record<string, string> = {
-  sun: COLORS.sun, moon: COLORS.moonLit, mercury: '#d9c8b4', venus: '#fff4d6', mars: '#ff9f80', jupiter: '#f3deb8', saturn: '#ead9a4', uranus: '#b9f1ef', neptune: '#9fb8ff',
+  sun: COLORS.sun, moon: COLORS.moonLit, ...PLANET_TINTS,
 };
 
 export function Bodies() {
@@ -405,8 +406,8 @@ export function Envelope() {
     );
     maskBand.frustumCulled = false;
     maskBand.renderOrder = 6;
-    const sunRing = new PolyLine(patternLineMaterial(COLORS.sunKeepOut, 2.2, [8, 5]), 97);
-    const moonRing = new PolyLine(patternLineMaterial(COLORS.moonKeepOut, 2, [8, 5]), 97);
+    const sunRing = new PolyLine(patternLineMaterial(COLORS.sunKeepOut, PLAN_LINES.keepOut.widthPx, PLAN_LINES.keepOut.pattern), 97);
+    const moonRing = new PolyLine(patternLineMaterial(COLORS.moonKeepOut, 2, PLAN_LINES.keepOut.pattern), 97);
     return { mesh, maskLine, maskBand, sunRing, moonRing };
   }, []);
   useEffect(() => () => {

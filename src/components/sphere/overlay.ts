@@ -173,36 +173,70 @@ function markerOffset(it: LabelItem): number {
   }
 }
 
+/** Half the size of each marker's box, CSS px (see the drawing in drawOverlay). */
+function markerBox(it: LabelItem, sx: number, sy: number): [number, number, number, number] | null {
+  switch (it.marker) {
+    case 'ring':
+      return [sx - 8.5, sy - 8.5, sx + 8.5, sy + 8.5];
+    case 'dot':
+      return [sx - 3, sy - 3, sx + 3, sy + 3];
+    case 'cross':
+      return [sx - 4.5, sy - 4.5, sx + 4.5, sy + 4.5];
+    case 'comment':
+      return [sx - 2, sy - 17, sx + 16, sy];
+    default:
+      return null;
+  }
+}
+
+/** Gap kept between a written name and any other name or marker, CSS px. */
+export const LABEL_GAP = 2;
+
 /**
  * Decides which names are written: in priority order (cardinal points, targets, bodies, comments, pins,
- * reference points, stars, grid numbers; the near side of the sphere before the far side), a name is
- * written only where it does not overlap one already placed (2 px apart). Markers are always drawn.
- * Pure: `measure(item)` gives the text width in CSS pixels.
+ * reference points, stars, grid numbers; the near side of the sphere before the far side; a selected
+ * target first), a name is written only where its box keeps LABEL_GAP px from every name already
+ * written and from the marker of every label placed before it. Markers are always drawn, so a name of
+ * lower priority never covers the ring or flag of a higher one. Pure: `measure(item)` gives the text
+ * width in CSS pixels. Runs every frame, so the rule holds at any zoom and in both views.
  */
 export function declutter(placed: PlacedLabel[], measure: (it: LabelItem) => number): PlacedLabel[] {
   const order = placed
     .map((p, i) => ({ p, i, k: LABEL_PRIORITY[p.item.kind] + (p.far ? FAR : 0) - (p.item.bold ? 1 : 0) }))
     .sort((a, b) => a.k - b.k || a.i - b.i);
   const boxes: number[] = [];
-  const pad = 2;
+  const pad = LABEL_GAP;
+  const hits = (x0: number, y0: number, x1: number, y1: number) => {
+    for (let j = 0; j < boxes.length; j += 4) {
+      if (x0 - pad < boxes[j + 2] && x1 + pad > boxes[j] && y0 - pad < boxes[j + 3] && y1 + pad > boxes[j + 1]) return true;
+    }
+    return false;
+  };
   for (const { p } of order) {
     const [x0, y0, x1, y1] = labelBox(p.item, p.sx, p.sy, measure(p.item));
-    let free = true;
-    for (let j = 0; j < boxes.length; j += 4) {
-      if (x0 - pad < boxes[j + 2] && x1 + pad > boxes[j] && y0 - pad < boxes[j + 3] && y1 + pad > boxes[j + 1]) {
-        free = false;
-        break;
-      }
-    }
+    const free = !hits(x0, y0, x1, y1);
     p.text = free;
     if (free) boxes.push(x0, y0, x1, y1);
+    const m = markerBox(p.item, p.sx, p.sy);
+    if (m) boxes.push(m[0], m[1], m[2], m[3]);
   }
   return order.map((o) => o.p);
 }
 
-/** Text widths by font and text (the same names come back every frame). */
+/**
+ * Text widths by font and text (the same names come back every frame). Widths measured before the web
+ * font has loaded are those of the fallback font: the cache starts again whenever fonts finish loading,
+ * or names measured narrow would be written over their neighbours.
+ */
 const widths = new Map<string, number>();
+let fontsHooked = false;
+function hookFonts() {
+  fontsHooked = true;
+  const fonts = typeof document !== 'undefined' ? document.fonts : undefined;
+  fonts?.addEventListener?.('loadingdone', () => widths.clear());
+}
 function measureWith(ctx: CanvasRenderingContext2D) {
+  if (!fontsHooked) hookFonts();
   return (it: LabelItem) => {
     const key = it.kind + '\u0000' + it.text;
     let w = widths.get(key);

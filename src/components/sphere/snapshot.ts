@@ -4,6 +4,7 @@
  */
 import type { Layers } from '../../lib/scenes/scene';
 import { CIRCLE_KEYS, CIRCLE_STYLES, GRID_STYLES } from './styles';
+import { LABELS, SURFACE } from '../../lib/style/palette';
 
 export interface SnapshotCaption {
   title: string;
@@ -34,23 +35,23 @@ export async function composeSnapshot(glDataUrl: string, overlay: HTMLCanvasElem
   c.height = H + headH;
   const ctx = c.getContext('2d');
   if (!ctx) throw new Error('2D canvas unavailable');
-  ctx.fillStyle = '#0b1020';
+  ctx.fillStyle = SURFACE.panel.screen;
   ctx.fillRect(0, 0, c.width, c.height);
   ctx.drawImage(img, 0, headH);
   if (overlay && overlay.width) ctx.drawImage(overlay, 0, headH, W, H);
   const f = (px: number, w = 400) => `${w} ${Math.round(px * scale)}px "Space Grotesk", system-ui, sans-serif`;
-  ctx.fillStyle = '#e6edf7';
+  ctx.fillStyle = SURFACE.text.screen;
   ctx.textBaseline = 'top';
   ctx.font = f(18, 700);
   ctx.fillText(`${caption.title} — ${caption.view}`, 14 * scale, 10 * scale);
   ctx.font = f(13);
-  ctx.fillStyle = '#b9c4d6';
+  ctx.fillStyle = SURFACE.textMuted.screen;
   ctx.fillText(`${caption.site}   ·   ${caption.local}   ·   ${caption.utc}   ·   LST ${caption.lst}`, 14 * scale, 36 * scale);
   // Legend.
   let y = headH + 14 * scale;
   const x0 = W + 14 * scale;
   ctx.font = f(14, 700);
-  ctx.fillStyle = '#e6edf7';
+  ctx.fillStyle = SURFACE.text.screen;
   ctx.fillText('Legend', x0, y);
   y += 24 * scale;
   ctx.font = f(12);
@@ -65,7 +66,7 @@ export async function composeSnapshot(glDataUrl: string, overlay: HTMLCanvasElem
     ctx.lineTo(x0 + 46 * scale, y + 7 * scale);
     ctx.stroke();
     ctx.setLineDash([]);
-    ctx.fillStyle = '#dbe3ef';
+    ctx.fillStyle = SURFACE.text.screen;
     ctx.fillText(`${st.label} (${st.patternName})`, x0 + 54 * scale, y);
     y += 20 * scale;
   }
@@ -77,7 +78,7 @@ export async function composeSnapshot(glDataUrl: string, overlay: HTMLCanvasElem
     ctx.moveTo(x0, y + 7 * scale);
     ctx.lineTo(x0 + 46 * scale, y + 7 * scale);
     ctx.stroke();
-    ctx.fillStyle = '#dbe3ef';
+    ctx.fillStyle = SURFACE.text.screen;
     ctx.fillText(GRID_STYLES[k].label, x0 + 54 * scale, y);
     y += 20 * scale;
   }
@@ -91,7 +92,7 @@ export async function composeSnapshot(glDataUrl: string, overlay: HTMLCanvasElem
     y += 18 * scale;
   }
   y += 10 * scale;
-  ctx.fillStyle = '#93a1b5';
+  ctx.fillStyle = LABELS.labelDim.screen;
   ctx.font = f(11);
   for (const line of ['Computed positions and times are for planning;', 'local rules and instrument interlocks', 'take precedence.']) {
     ctx.fillText(line, x0, y);
@@ -99,9 +100,9 @@ export async function composeSnapshot(glDataUrl: string, overlay: HTMLCanvasElem
   }
   if (sunUp) {
     y += 8 * scale;
-    ctx.fillStyle = '#b3261e';
+    ctx.fillStyle = SURFACE.caution.screen;
     ctx.fillRect(x0 - 4 * scale, y - 4 * scale, legendW - 20 * scale, 58 * scale);
-    ctx.fillStyle = '#fff';
+    ctx.fillStyle = SURFACE.onCaution.screen;
     ctx.font = f(11, 700);
     for (const line of ['Never point optics at the Sun', 'without a certified full-aperture', 'solar filter.']) {
       ctx.fillText(line, x0, y);

@@ -1,10 +1,13 @@
 /**
- * Armilla's own look for the sphere: each great circle has a colour AND a line pattern, so the rings
- * read in greyscale and for colour-blind viewers. Patterns are on/off lengths in CSS pixels.
+ * The sky view's names for the palette (`src/lib/style/palette.ts`, the one colour and line-pattern code
+ * of the product): each great circle has a colour AND a line pattern, so the rings read in greyscale and
+ * for colour-blind viewers. Patterns are on/off lengths in CSS pixels.
  */
 import type { LayerKey } from '../../lib/scenes/scene';
 
-export type CircleKey = 'horizon' | 'equator' | 'ecliptic' | 'meridian' | 'primeVertical' | 'galactic';
+import { BODIES, CIRCLE_KEYS as KEYS, CIRCLES, GRIDS, LABELS, PLAN, SURFACE, type CircleKey } from '../../lib/style/palette';
+
+export type { CircleKey };
 
 export interface LineStyle {
   label: string;
@@ -15,46 +18,42 @@ export interface LineStyle {
   patternName: string;
 }
 
-export const CIRCLE_STYLES: Record<CircleKey, LineStyle> = {
-  horizon: { label: 'Horizon', color: '#e9c46a', widthPx: 2.6, pattern: [], patternName: 'solid' },
-  equator: { label: 'Celestial equator', color: '#4cc9f0', widthPx: 2.2, pattern: [14, 7], patternName: 'long dashes' },
-  ecliptic: { label: 'Ecliptic', color: '#f4845f', widthPx: 2.2, pattern: [12, 5, 2.5, 5], patternName: 'dash-dot' },
-  meridian: { label: 'Local meridian', color: '#b8a1ff', widthPx: 2.2, pattern: [2.5, 5], patternName: 'dotted' },
-  primeVertical: { label: 'Prime vertical', color: '#57cc99', widthPx: 2.2, pattern: [12, 4, 2.5, 4, 2.5, 4], patternName: 'dash-dot-dot' },
-  galactic: { label: 'Galactic equator', color: '#ff70a6', widthPx: 2.2, pattern: [6, 6], patternName: 'short dashes' },
-};
+/** The palette's rings in the sky view's terms (screen inks). */
+export const CIRCLE_STYLES = Object.fromEntries(
+  KEYS.map((k) => [k, { label: CIRCLES[k].label, color: CIRCLES[k].screen, widthPx: CIRCLES[k].widthPx, pattern: CIRCLES[k].pattern, patternName: CIRCLES[k].patternName }]),
+) as Record<CircleKey, LineStyle>;
 
-export const CIRCLE_KEYS = Object.keys(CIRCLE_STYLES) as CircleKey[];
+export const CIRCLE_KEYS = KEYS;
 
 export const GRID_STYLES = {
-  altAzGrid: { label: 'Alt-az grid', color: '#c8b27a', opacity: 0.32 },
-  raDecGrid: { label: 'RA/Dec grid (J2000)', color: '#6fb3d9', opacity: 0.32 },
-  eclipticGrid: { label: 'Ecliptic grid', color: '#e39a7b', opacity: 0.3 },
+  altAzGrid: { label: GRIDS.altAzGrid.label, color: GRIDS.altAzGrid.screen, opacity: GRIDS.altAzGrid.opacity },
+  raDecGrid: { label: GRIDS.raDecGrid.label, color: GRIDS.raDecGrid.screen, opacity: GRIDS.raDecGrid.opacity },
+  eclipticGrid: { label: GRIDS.eclipticGrid.label, color: GRIDS.eclipticGrid.screen, opacity: GRIDS.eclipticGrid.opacity },
 } as const;
 
 export const COLORS = {
-  background: '#05070d',
-  groundObserver: '#141a12',
-  groundSphere: '#3b4a2c',
-  groundEdge: '#e9c46a',
-  axis: '#dfe6f2',
-  referencePoint: '#f1f5f9',
-  sun: '#ffd166',
-  moonLit: '#e8e6df',
-  moonDark: '#2a2d33',
-  planet: '#f9e2ae',
-  target: '#7df9ff',
-  targetOutside: '#ff8fa3',
-  forbidden: '#ff3b5c',
-  mask: '#2d2218',
-  maskEdge: '#c08552',
-  sunKeepOut: '#ff4d4d',
-  moonKeepOut: '#a0a8ff',
-  pin: '#ffe066',
-  comment: '#ffb703',
-  label: '#e6edf7',
-  labelDim: '#93a1b5',
-  cardinal: '#ffe8a3',
+  background: SURFACE.sky.screen,
+  groundObserver: SURFACE.groundObserver.screen,
+  groundSphere: SURFACE.groundSphere.screen,
+  groundEdge: CIRCLES.horizon.screen,
+  axis: LABELS.axis.screen,
+  referencePoint: LABELS.referencePoint.screen,
+  sun: BODIES.sun.screen,
+  moonLit: BODIES.moon.screen,
+  moonDark: BODIES.moonDark.screen,
+  planet: BODIES.planet.screen,
+  target: PLAN.target.screen,
+  targetOutside: PLAN.targetOutside.screen,
+  forbidden: PLAN.forbidden.screen,
+  mask: PLAN.mask.screen,
+  maskEdge: PLAN.maskEdge.screen,
+  sunKeepOut: PLAN.sunKeepOut.screen,
+  moonKeepOut: PLAN.moonKeepOut.screen,
+  pin: PLAN.pin.screen,
+  comment: PLAN.comment.screen,
+  label: LABELS.label.screen,
+  labelDim: LABELS.labelDim.screen,
+  cardinal: LABELS.cardinal.screen,
 } as const;
 
 /** Legend rows: layer key → label; circles carry their own style. */
@@ -76,6 +75,4 @@ export const LEGEND: { key: LayerKey; label: string; group: 'Rings' | 'Grids' | 
 ];
 
 /** SVG stroke-dasharray for a pattern (legend swatches). */
-export function dashArray(pattern: number[]): string | undefined {
-  return pattern.length ? pattern.join(' ') : undefined;
-}
+export { dashArray } from '../../lib/style/palette';

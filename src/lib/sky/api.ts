@@ -9,6 +9,8 @@ import { observe } from './observe';
 import { skyEvents } from './events';
 import { visibilityWindows, type WindowTarget } from './windows';
 import { envelopeSchema } from './envelope';
+import { boundedArray } from '../bounded-array';
+import { windowsGridStepSec } from './night';
 import type { SiteInput } from './frames';
 
 export const MAX_SPAN_DAYS = 31;
@@ -102,7 +104,7 @@ export const windowsBodySchema = z
   .object({
     site: z.object({ lat: num(-90, 90, LAT), lon: num(-180, 360, LON), height: num(-500, 10000, HEIGHT).optional().default(0) }),
     envelope: envelopeSchema,
-    targets: z.array(windowTargetSchema).max(MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
+    targets: boundedArray(windowTargetSchema, MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
     from: instant,
     to: instant,
   })
@@ -148,12 +150,7 @@ export function eventsResponse(q: EventsQuery) {
  * grid so one request stays near 5 million limit evaluations at most (crossings are still refined
  * to ≤ 1 s; only windows shorter than the step can be missed). Reported back as `stepSec`.
  */
-export function windowsStepSec(spanMs: number, nTargets: number): number {
-  const base = spanMs <= 2 * 86400000 ? 120 : 300;
-  const budget = 5e6;
-  const needed = ((spanMs / 1000) * Math.max(1, nTargets)) / budget;
-  return Math.min(1800, Math.max(base, Math.ceil(needed / 60) * 60));
-}
+export const windowsStepSec = windowsGridStepSec;
 
 export function windowsResponse(b: WindowsBody) {
   const targets: WindowTarget[] = b.targets.map((t) =>

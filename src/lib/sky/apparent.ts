@@ -149,9 +149,18 @@ export function deflectAndAberrate(f: SkyFrame, p: Float64Array | number[]): voi
   const pe = p[0] * e[0] + p[1] * e[1] + p[2] * e[2];
   const dlim = 1e-6 / Math.max(f.sunDistAu * f.sunDistAu, 1);
   const wl = SUN_SCHWARZSCHILD_AU / f.sunDistAu / Math.max(1 + pe, dlim);
-  let x = p[0] + wl * (e[0] - p[0] * pe);
-  let y = p[1] + wl * (e[1] - p[1] * pe);
-  let z = p[2] + wl * (e[2] - p[2] * pe);
+  p[0] += wl * (e[0] - p[0] * pe);
+  p[1] += wl * (e[1] - p[1] * pe);
+  p[2] += wl * (e[2] - p[2] * pe);
+  aberrate(f, p);
+}
+
+/**
+ * In place: aberration (IAU SOFA ab: special-relativistic, observer's total barycentric velocity incl.
+ * the diurnal part) of a natural direction p (ICRS axes) → proper direction.
+ */
+export function aberrate(f: SkyFrame, p: Float64Array | number[]): void {
+  let x = p[0], y = p[1], z = p[2];
   const v = f.vObs;
   const bm1 = f.bm1;
   const pdv = x * v[0] + y * v[1] + z * v[2];

@@ -1,15 +1,20 @@
 /**
  * Sun, Moon and planets as apparent topocentric places.
  *
- * astronomy-engine gives the topocentric J2000 direction corrected for light time and annual
- * aberration (Equator(..., ofdate = false, aberration = true)); this module adds diurnal aberration,
- * then applies the engine's own N·P·B and Earth rotation (apparent.ts) so bodies and stars share one
- * frame. Light deflection is neglected for bodies (< 0.01″ except grazing the Sun).
+ * Sun and planets: heliocentric positions from the VSOP87B series (planets/series.ts), the observer's
+ * heliocentric position (Earth + site), light time (the planet taken at t − τ), then aberration with the
+ * observer's total velocity (apparent.ts), and the engine's own N·P·B and Earth rotation, so bodies and
+ * stars share one frame. Within 1″ of JPL DE405 + IAU SOFA (tests/unit/sky/bodies-de405.test.ts).
+ * Moon: astronomy-engine's geocentric Moon (light time and annual aberration), made topocentric by the
+ * engine and given diurnal aberration here; within 2″ of DE405.
+ * Light deflection is neglected for bodies (< 0.1″ beyond 5° from the Sun).
  */
 import { Astronomy } from './engine';
 import { DEG, RAD, wrap360 } from './math';
 import { KM_PER_AU, MOON_RADIUS_KM } from './constants';
-import { addDiurnalAberration, describeEnu, skyFrame, type HorizontalPlace, type SkyFrame } from './apparent';
+import { aberrate, addDiurnalAberration, describeEnu, skyFrame, type HorizontalPlace, type SkyFrame } from './apparent';
+import { heliocentricIcrs, type SeriesBody } from './planets/series';
+import { C_AU_PER_DAY } from './constants';
 import { mulVec } from './math';
 import type { SiteInput } from './frames';
 import type { RefractionMode } from './refraction';
@@ -45,13 +50,65 @@ export interface BodyVector {
   distanceKm: number;
 }
 
+const scratchE = [0, 0, 0];
+const scratchP = [0, 0, 0];
+
+/**
+ * Geometric direction (au, ICRS axes) from the frame's observer to the Sun or a planet, with light
+ * time: the planet's heliocentric position at t − τ minus the observer's at t. The Sun's own motion
+ * about the barycentre during τ (≤ 0.01″) is neglected.
+ */
+function geometricFromObserver(f: SkyFrame, body: Exclude<BodyName, 'moon'>, out: number[]): number[] {
+  const e = heliocentricIcrs('earth', f.dTT, scratchE);
+  const ox = e[0] + f.obsGeoAu[0], oy = e[1] + f.obsGeoAu[1], oz = e[2] + f.obsGeoAu[2];
+  if (body === 'sun') {
+    out[0] = -ox; out[1] = -oy; out[2] = -oz;
+    return out;
+  }
+  // One evaluation: the light time is that of the start of this 6-hour slot (see lightTimeGuess).
+  const p = heliocentricIcrs(body as SeriesBody, f.dTT - lightTimeGuess(body as SeriesBody, f.dTT), scratchP);
+  out[0] = p[0] - ox; out[1] = p[1] - oy; out[2] = p[2] - oz;
+  return out;
+}
+
+const SLOT_DAYS = 0.25;
+const tauSlots = new Map<SeriesBody, { slot: number; tau: number }>();
+/**
+ * Geocentric light time (days) of a planet at the start of the 6-hour slot holding dTT, iterated twice
+ * and remembered. Within a slot the true τ differs by < 4 s (range rate ≤ 60 km/s), which moves the
+ * planet by < 200 km (< 0.002″); the result depends on dTT alone, so every caller gets the same place.
+ */
+function lightTimeGuess(body: SeriesBody, dTT: number): number {
+  const slot = Math.floor(dTT / SLOT_DAYS);
+  const c = tauSlots.get(body);
+  if (c && c.slot === slot) return c.tau;
+  const t = slot * SLOT_DAYS;
+  const e = heliocentricIcrs('earth', t, [0, 0, 0]);
+  let tau = 0;
+  for (let i = 0; i < 3; i++) {
+    const p = heliocentricIcrs(body, t - tau, [0, 0, 0]);
+    tau = Math.hypot(p[0] - e[0], p[1] - e[1], p[2] - e[2]) / C_AU_PER_DAY;
+  }
+  tauSlots.set(body, { slot, tau });
+  return tau;
+}
+
 /** Apparent topocentric direction of a body at a frame. */
 export function bodyVector(f: SkyFrame, body: BodyName): BodyVector {
-  const eq = Astronomy.Equator(BODY_ENUM[body], f.astroTime, f.observer, false, true);
-  const v = eq.vec;
-  const d = Math.hypot(v.x, v.y, v.z);
-  const p: [number, number, number] = [v.x / d, v.y / d, v.z / d];
-  addDiurnalAberration(f, p);
+  let p: [number, number, number];
+  let d: number;
+  if (body === 'moon') {
+    const eq = Astronomy.Equator(Astronomy.Body.Moon, f.astroTime, f.observer, false, true);
+    const v = eq.vec;
+    d = Math.hypot(v.x, v.y, v.z);
+    p = [v.x / d, v.y / d, v.z / d];
+    addDiurnalAberration(f, p);
+  } else {
+    const g = geometricFromObserver(f, body, [0, 0, 0]);
+    d = Math.hypot(g[0], g[1], g[2]);
+    p = [g[0] / d, g[1] / d, g[2] / d];
+    aberrate(f, p);
+  }
   const enu = mulVec([0, 0, 0], f.icrsToEnu, p) as [number, number, number];
   return { icrs: p, enu, distanceKm: d * KM_PER_AU };
 }
@@ -83,9 +140,18 @@ export interface BodyPlace extends HorizontalPlace {
  */
 export function geocentricApparent(body: BodyName, date: Date): { raDeg: number; decDeg: number; distanceKm: number } {
   const f = skyFrame({ latDeg: 0, lonDeg: 0, heightM: 0 }, date, { geocentric: true });
-  const g = Astronomy.GeoVector(BODY_ENUM[body], f.astroTime, true);
-  const d = Math.hypot(g.x, g.y, g.z);
-  const v = mulVec([0, 0, 0], f.npb, [g.x / d, g.y / d, g.z / d]);
+  let u: number[];
+  let d: number;
+  if (body === 'moon') {
+    const g = Astronomy.GeoVector(BODY_ENUM[body], f.astroTime, true);
+    d = Math.hypot(g.x, g.y, g.z);
+    u = [g.x / d, g.y / d, g.z / d];
+  } else {
+    const bv = bodyVector(f, body);
+    u = bv.icrs;
+    d = bv.distanceKm / KM_PER_AU;
+  }
+  const v = mulVec([0, 0, 0], f.npb, u);
   return { raDeg: wrap360(Math.atan2(v[1], v[0]) * RAD), decDeg: Math.asin(v[2]) * RAD, distanceKm: d * KM_PER_AU };
 }
 

@@ -2,3 +2,4 @@ export * from './accounts';
 export * from './teams';
 export * from './ops';
 export * from './scenes';
+export * from './tokens';
