@@ -235,6 +235,10 @@ describe.skipIf(!haveBrowser)('sky view in the browser', () => {
     const page = await open(`?time=${NIGHT}&view=observer`);
     // Find a body on screen from the engine's position and the page camera, then click it.
     let found: { name: string; x: number; y: number } | null = null;
+    // Widest field first (minus zooms out), so a planet high in the sky is in the picture.
+    await page.locator('[data-testid=sky-canvas]').focus();
+    for (let i = 0; i < 4; i++) await page.keyboard.press('-');
+    await page.waitForTimeout(500);
     for (const view of ['observer', 'sphere'] as const) {
       if (view === 'sphere') {
         await page.click('[data-testid=mode-sphere]');
@@ -296,6 +300,7 @@ describe.skipIf(!haveBrowser)('sky view in the browser', () => {
       const page = await bare.newPage({ viewport: { width: 1280, height: 900 } });
       const pageErrors: string[] = [];
       page.on('pageerror', (e) => pageErrors.push(e.message));
+      await page.addInitScript(() => localStorage.setItem('armilla.ui.panel.time', 'true'));
       await page.goto(`${server.url}/sky?time=${NIGHT}`);
       await page.locator('[data-testid=sky-no-webgl]').waitFor({ timeout: 30_000 });
       expect(await page.locator('[data-testid=sky-no-webgl]').textContent()).toContain('could not start WebGL');
