@@ -11,7 +11,7 @@ import { scenes } from '../server/db/schema';
 import { audit } from '../server/audit';
 import { HttpError } from '../server/http';
 import { sceneFor, toSceneOut, writeTx } from '../server/scenes.server';
-import { skyThumbnail, thumbnailEtag, thumbnailKey } from '../thumbnails/render.server';
+import { skyThumbnail, thumbnailEtag, thumbnailKey } from '../server/thumbnails/render.server';
 import { readCapped } from '../imports/upload';
 import { isPng } from '../png';
 
@@ -34,7 +34,7 @@ export async function putThumbnail(db: DbOrTx, user: User, sceneId: string, requ
 
 /**
  * The snapshot an editor saved, or else the sky thumbnail made on the server from the scene (its chart
- * at its time and site; src/lib/thumbnails/). Every scene has one, so the dashboard never meets a 404.
+ * at its time and site; src/lib/server/thumbnails/). Every scene has one, so the dashboard never meets a 404.
  */
 export async function getThumbnail(db: DbOrTx, user: User, sceneId: string, ifNoneMatch: string | null): Promise<Response> {
   const { row } = await sceneFor(db, user, sceneId, 'scene.read');
@@ -44,7 +44,7 @@ export async function getThumbnail(db: DbOrTx, user: User, sceneId: string, ifNo
     const headers = { 'content-type': 'image/png', 'cache-control': 'private, no-cache', etag };
     if (ifNoneMatch === etag) return new Response(null, { status: 304, headers });
     const { png } = skyThumbnail(scene);
-    return new Response(png, { headers: { ...headers, 'content-length': String(png.length) } });
+    return new Response(new Uint8Array(png), { headers: { ...headers, 'content-length': String(png.length) } });
   }
   const bytes = new Uint8Array(row.thumbnail);
   const etag = `"${createHash('sha256').update(bytes).digest('base64url').slice(0, 22)}"`;
