@@ -55,7 +55,7 @@ browserTest('the altitude chart draws one curve per target, its cursor and the s
 
   // drag the cursor to three quarters of the span: the sphere's UTC readout follows
   const utc = page.locator('[data-testid=time-utc]');
-  await utc.waitFor({ timeout: 60_000 });
+  await utc.waitFor({ state: 'attached', timeout: 60_000 }); // the time readout may sit in a closed panel
   const before = await utc.textContent();
   const area = page.locator('[data-testid=altitude-chart-cursor]');
   await area.scrollIntoViewIfNeeded();
@@ -73,7 +73,7 @@ browserTest('the altitude chart draws one curve per target, its cursor and the s
   expect(Math.abs(valueNow - want)).toBeLessThan(3 * 60_000);
 
   // the sphere's time bar moves the chart's cursor: one hour on
-  await page.click('[data-testid=step-plus-hour]');
+  await page.locator('[data-testid=step-plus-hour]').dispatchEvent('click');
   await expect.poll(async () => Number(await area.getAttribute('aria-valuenow')) - valueNow, { timeout: 10_000 }).toBeGreaterThan(3_500_000);
 
   // hovering a row of the figures highlights its curve (the others dim)
