@@ -30,6 +30,7 @@ function armillaServer() {
         renameSync(entry, app);
         copyFileSync(fileURLToPath(new URL('./scripts/server-entry.mjs', import.meta.url)), entry);
         const made = precompressDir(fileURLToPath(new URL('client/', outDir)));
+        /** @param {'raw' | 'br' | 'gz'} k */
         const sum = (k) => made.reduce((a, f) => a + f[k], 0);
         console.log(`armilla-server: precompressed ${made.length} files, ${sum('raw')} B → br ${sum('br')} B, gzip ${sum('gz')} B`);
       },
