@@ -297,6 +297,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/scenes/[id]/targets.vot': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/windows.csv': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/night': { expect: team('viewer', 200) },
+  'GET /api/scenes/[id]/night.svg': { expect: team('viewer', 200) },
 
   // share links: the token is the credential, whoever holds it (account or not) gets the link's role
   'GET /api/shared/[token]': { expect: ALL(200) },
@@ -315,6 +316,25 @@ const TABLE: Record<string, Entry> = {
   'GET /api/shared/[token]/export.vot': { expect: ALL(200) },
   'GET /api/shared/[token]/export-windows.csv': { expect: ALL(200) },
   'GET /api/shared/[token]/night': { expect: ALL(200) },
+  'GET /api/shared/[token]/night.svg': { expect: ALL(200) },
+
+  // calendars: the scene's night for members and link holders; the team's secret subscription URL (editor+)
+  'GET /api/scenes/[id]/calendar.ics': { expect: team('viewer', 200) },
+  'GET /api/shared/[token]/calendar.ics': { expect: ALL(200) },
+  'GET /api/teams/[teamId]/calendar-feed': { expect: team('editor', 200) },
+  'POST /api/teams/[teamId]/calendar-feed': { expect: team('editor', 201) },
+  'DELETE /api/teams/[teamId]/calendar-feed': {
+    expect: team('editor', 204),
+    req: async ({ path }) => {
+      ok(await editor().post(path), 201, 'calendar feed');
+      return { path };
+    },
+  },
+  // the secret URL is the credential: whoever holds it reads the feed
+  'GET /api/calendars/[token].ics': {
+    expect: ALL(200),
+    req: async () => ({ path: new URL(ok(await editor().post(`/api/teams/${fx.teamId}/calendar-feed`), 201, 'calendar feed').url).pathname }),
+  },
 
   // personal API tokens: each account manages its own (another member's token id answers 404)
   'GET /api/tokens': { expect: signedIn(200) },

@@ -49,6 +49,7 @@ const NO_BODY: Record<string, string> = {
   'POST /api/auth/sign-out': 'reads no body (ends the session)',
   'POST /api/invitations/[token]/accept': 'reads no body (the token is in the path)',
   'POST /api/shared/[token]/links': 'reads no body (always 403 or 404)',
+  'POST /api/teams/[teamId]/calendar-feed': 'reads no body (makes a new secret URL)',
 };
 
 let guestToken = '';

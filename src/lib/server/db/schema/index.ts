@@ -3,3 +3,4 @@ export * from './teams';
 export * from './ops';
 export * from './scenes';
 export * from './tokens';
+export * from './calendars';
