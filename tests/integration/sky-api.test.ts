@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startServer, type TestServer } from './helpers/server';
 import { ApiClient } from './helpers/client';
+import stars from '../reference/stars.json';
 
 let s: TestServer;
 let c: ApiClient;
@@ -94,6 +95,20 @@ describe('POST /api/sky/windows', () => {
     expect(star.reasons.length).toBe(star.windows.length);
     for (const w of star.windows) expect(Date.parse(w.end)).toBeGreaterThan(Date.parse(w.start));
     expect(star.reasons).toContain('minAltitude');
+  });
+
+  it('the star's window edges are where it crosses the 30° floor, within 2 s of ERFA atco13 (tests/reference/stars.py, case windows-equator-star)', async () => {
+    const ref = stars.cases.find((c) => c.id === 'windows-equator-star')!.instants;
+    const setsAt = Date.parse(ref.find((x) => !x.rising)!.time), risesAt = Date.parse(ref.find((x) => x.rising)!.time);
+    const r = await c.json('POST', '/api/sky/windows', body, { origin: s.url });
+    expect(r.status).toBe(200);
+    const w = r.data.targets[0].windows.map((x: { start: string; end: string }) => [Date.parse(x.start), Date.parse(x.end)]);
+    // Span 2024-03-01 00:00 → 03-02 00:00: up at the start until it sinks below 30°, and again from its rise above 30° to the end.
+    expect(w).toHaveLength(2);
+    expect(w[0][0]).toBe(Date.parse(body.from));
+    expect(Math.abs(w[0][1] - setsAt)).toBeLessThan(2000);
+    expect(Math.abs(w[1][0] - risesAt)).toBeLessThan(2000);
+    expect(w[1][1]).toBe(Date.parse(body.to));
   });
 
   it('refuses more than 2,000 targets, bad JSON and bad fields', async () => {
