@@ -2,8 +2,6 @@ import { describe, expect, it } from 'vitest';
 import { moonPhases, nextEvent, riseTransitSet, riseTransitSetDetailed, skyEvents, twilightEvents } from '../../../src/lib/sky/events';
 import { observe, type Target } from '../../../src/lib/sky/observe';
 import { bodies } from '../../../src/lib/sky/bodies';
-import { skyFrame } from '../../../src/lib/sky/apparent';
-import { bodyVector } from '../../../src/lib/sky/bodies';
 import { RAD } from '../../../src/lib/sky/math';
 import stars from '../../reference/stars.json';
 import bodiesRef from '../../reference/bodies.json';
