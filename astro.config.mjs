@@ -5,6 +5,7 @@ import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
 import { copyFileSync, existsSync, renameSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { computeWorker } from './src/lib/server/compute/build.mjs';
 
 /**
  * Our own HTTP server around Astro (see scripts/server-entry.mjs): after a build, Astro's entry becomes
@@ -35,7 +36,7 @@ function armillaServer() {
 export default defineConfig({
   output: 'server',
   adapter: node({ mode: 'middleware' }),
-  integrations: [react(), armillaServer()],
+  integrations: [react(), armillaServer(), computeWorker()],
   // Astro's checkOrigin covers form posts only; src/middleware.ts checks every non-GET itself.
   security: { checkOrigin: false },
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },

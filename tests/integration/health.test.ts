@@ -12,7 +12,10 @@ test('the built server answers its health check against a real SQLite file', asy
   const c = new ApiClient(s.url);
   const r = await c.get('/api/health');
   expect(r.status).toBe(200);
-  expect(r.data).toEqual({ ok: true });
+  expect(r.data.ok).toBe(true);
+  // The built server computes on worker threads (dist/server/compute-worker.mjs), never in-process.
+  expect(r.data.compute).toMatchObject({ mode: 'workers' });
+  expect(r.data.compute.threads).toBeGreaterThanOrEqual(1);
 });
 
 test('a cross-origin POST is refused with 403 before any route runs', async () => {

@@ -263,11 +263,27 @@ describe('PATCH /api/scenes/:id', () => {
     expect(b.data.scene).toMatchObject({ envelopeId: null, envelope: { name: 'Inline 2', maxAltitude: 80 } });
   });
 
-  test('thumbnail: a PNG data URL is stored and served as image/png', async () => {
+  test('thumbnail: made from the sky until a PNG data URL is stored, then that is served as image/png', async () => {
     const sc = await create();
     expect(sc.hasThumbnail).toBe(false);
-    expect((await as.editor.get(`/api/scenes/${sc.id}/thumbnail`)).status).toBe(404);
-    const r = await as.editor.patch(`/api/scenes/${sc.id}`, { version: 1, thumbnail: PNG_1x1 });
+    // Before any upload, the server makes one from the scene's sky: a 160 × 160 PNG (IHDR width/height,
+    // PNG spec §11.2.2), revalidated by ETag, a new one when the scene changes.
+    const made = await as.editor.request('GET', `/api/scenes/${sc.id}/thumbnail.png`);
+    expect(made.status).toBe(200);
+    expect(made.headers.get('content-type')).toBe('image/png');
+    const madeBytes = new Uint8Array(await made.arrayBuffer());
+    const dv = new DataView(madeBytes.buffer);
+    expect([...madeBytes.slice(12, 16)].map((c) => String.fromCharCode(c)).join('')).toBe('IHDR');
+    expect([dv.getUint32(16), dv.getUint32(20)]).toEqual([160, 160]);
+    const etag = made.headers.get('etag')!;
+    expect((await as.editor.request('GET', `/api/scenes/${sc.id}/thumbnail.png`, undefined, { 'if-none-match': etag })).status).toBe(304);
+    const moved = await as.editor.patch(`/api/scenes/${sc.id}`, { version: 1, time: '2026-03-21T04:00:00Z' });
+    expect(moved.status).toBe(200);
+    const again = await as.editor.request('GET', `/api/scenes/${sc.id}/thumbnail.png`, undefined, { 'if-none-match': etag });
+    expect(again.status).toBe(200);
+    expect(again.headers.get('etag')).not.toBe(etag);
+    expect(Buffer.from(await again.arrayBuffer()).equals(Buffer.from(madeBytes))).toBe(false);
+    const r = await as.editor.patch(`/api/scenes/${sc.id}`, { version: 2, thumbnail: PNG_1x1 });
     expect(r.status).toBe(200);
     expect(r.data.scene.hasThumbnail).toBe(true);
     const img = await as.viewer.request('GET', `/api/scenes/${sc.id}/thumbnail`);
@@ -275,6 +291,7 @@ describe('PATCH /api/scenes/:id', () => {
     expect(img.headers.get('content-type')).toBe('image/png');
     const bytes = new Uint8Array(await img.arrayBuffer());
     expect([...bytes.slice(0, 8)]).toEqual([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+    expect(new DataView(bytes.buffer).getUint32(16)).toBe(1); // the uploaded 1 × 1 snapshot wins over the made one
     expect((await as.outsider.get(`/api/scenes/${sc.id}/thumbnail`)).status).toBe(404);
   });
 });

@@ -14,12 +14,12 @@ import { INPUT, LABEL } from './bits';
 
 const PAGE = 10;
 
-function Thumb({ id, title }: { id: string; title: string }) {
-  const [src, setSrc] = useState<string | null>(`/api/scenes/${encodeURIComponent(id)}/thumbnail.png`);
-  const [tried, setTried] = useState(0);
-  if (!src)
+/** The scene's thumbnail: the snapshot an editor saved, else the sky chart the server makes (src/lib/server/thumbnails/). */
+function Thumb({ id, title, version }: { id: string; title: string; version?: number }) {
+  const [failed, setFailed] = useState(false);
+  if (failed)
     return (
-      <span aria-hidden="true" className="flex h-12 w-20 items-center justify-center rounded border border-ink-700 bg-ink-850 text-brass-400">
+      <span aria-hidden="true" className="flex h-16 w-16 items-center justify-center rounded border border-ink-700 bg-ink-850 text-brass-400">
         <svg width="22" height="22" viewBox="0 0 32 32" fill="none" stroke="currentColor">
           <circle cx="16" cy="16" r="12" strokeWidth="2" />
           <ellipse cx="16" cy="16" rx="12" ry="4.5" strokeWidth="1.5" transform="rotate(-28 16 16)" />
@@ -28,16 +28,13 @@ function Thumb({ id, title }: { id: string; title: string }) {
     );
   return (
     <img
-      src={src}
-      alt={`Preview of ${title}`}
+      src={`/api/scenes/${encodeURIComponent(id)}/thumbnail.png${version ? `?v=${version}` : ''}`}
+      alt={`Sky of ${title}`}
+      width={64}
+      height={64}
       loading="lazy"
-      className="h-12 w-20 rounded border border-ink-700 object-cover"
-      onError={() => {
-        // thumbnail.png first, then the plain route, then the icon.
-        if (tried === 0) setSrc(`/api/scenes/${encodeURIComponent(id)}/thumbnail`);
-        else setSrc(null);
-        setTried(tried + 1);
-      }}
+      className="h-16 w-16 rounded border border-ink-700 object-cover"
+      onError={() => setFailed(true)}
     />
   );
 }
@@ -86,7 +83,7 @@ function ActivityList({ teamId, titles }: { teamId: string; titles: Map<string, 
             ) : title ? (
               <span>{title}</span>
             ) : null}
-            <time className="text-xs text-ink-500" dateTime={a.at} title={new Date(a.at).toLocaleString()}>
+            <time className="text-xs text-ink-300" dateTime={a.at} title={new Date(a.at).toLocaleString()}>
               · {timeAgo(a.at)}
             </time>
           </li>
@@ -201,7 +198,7 @@ function Table({ teamId, canCreate }: { teamId: string; canCreate: boolean }) {
                   {shown.map((s) => (
                     <tr key={s.id}>
                       <td className="py-2 pr-3">
-                        <Thumb id={s.id} title={s.title} />
+                        <Thumb id={s.id} title={s.title} version={s.version} />
                       </td>
                       <td className="py-2 pr-3">
                         <a className="text-brass-300 underline hover:text-brass-200" href={`/scenes/${encodeURIComponent(s.id)}`}>

@@ -4,7 +4,9 @@ import { isoUtc } from '../scenes/scene';
 import { HttpError, json, parseQuery } from '../server/http';
 import type { SceneOut } from '../server/scenes';
 import { attachment, slug, toSceneFile } from './scene-json';
-import { positionsCsv, windowsCsv } from './tables';
+import { runCompute } from '../server/compute';
+import { chargeWork, handoutWork, MAX_HANDOUT_TARGETS, MAX_POSITION_ROWS, positionsWork, windowsWork, type WORK_PER_MINUTE } from '../server/compute/budget';
+import { windowsStepSec } from '../sky/api';
 import { toVoTable } from './votable';
 import { voTargets } from './exports.server';
 
@@ -16,20 +18,37 @@ const csvHeaders = (filename: string) => ({
   'cache-control': 'no-store',
 });
 
-export function positionsResponse(scene: SceneOut, url: URL): Response {
+/** Whom the work of an export is charged to: a member's account, or a link holder's address. */
+export interface WorkPayer {
+  key: string;
+  who: keyof typeof WORK_PER_MINUTE;
+}
+
+export async function positionsResponse(scene: SceneOut, url: URL, payer: WorkPayer): Promise<Response> {
   const q = parseQuery(z.object({ time: isoUtc.optional() }), url);
   const at = new Date(q.time ?? scene.time);
   const stamp = at.toISOString().slice(0, 16).replace(/[:]/g, '');
-  return new Response(positionsCsv(scene, at), { headers: csvHeaders(`${slug(scene.title)}-positions-${stamp}Z.csv`) });
+  await chargeWork(
+    payer.key,
+    positionsWork(scene.targets.length),
+    payer.who,
+    `This scene has ${scene.targets.length} targets; the positions export (with the next rise, transit and set of each) takes at most ${MAX_POSITION_ROWS}. The windows export and the scene JSON have no such limit.`,
+  );
+  const csv = await runCompute('positionsCsv', { scene, at });
+  return new Response(csv, { headers: csvHeaders(`${slug(scene.title)}-positions-${stamp}Z.csv`) });
 }
 
-export function windowsResponse(scene: SceneOut, url: URL): Response {
+export async function windowsResponse(scene: SceneOut, url: URL, payer: WorkPayer): Promise<Response> {
   const q = parseQuery(z.object({ from: isoUtc.optional(), to: isoUtc.optional() }), url);
   const from = new Date(q.from ?? scene.time);
   const to = q.to ? new Date(q.to) : new Date(from.getTime() + 86400000);
   if (!(to.getTime() > from.getTime())) throw new HttpError(400, 'invalid', 'to: must be after from', 'to');
   if (to.getTime() - from.getTime() > MAX_SPAN_MS) throw new HttpError(400, 'invalid', 'to: the span may be at most 31 days', 'to');
-  return new Response(windowsCsv(scene, from, to), { headers: csvHeaders(`${slug(scene.title)}-windows.csv`) });
+  const spanMs = to.getTime() - from.getTime();
+  const stepSec = windowsStepSec(spanMs, scene.targets.length);
+  await chargeWork(payer.key, windowsWork(scene.targets.length, spanMs, stepSec), payer.who, 'Ask for a shorter span.');
+  const csv = await runCompute('windowsCsv', { scene, from, to, stepSec });
+  return new Response(csv, { headers: csvHeaders(`${slug(scene.title)}-windows.csv`) });
 }
 
 export function sceneJsonResponse(scene: SceneOut): Response {
@@ -44,4 +63,15 @@ export function voTableResponse(scene: SceneOut): Response {
       'cache-control': 'no-store',
     },
   });
+}
+
+/** The handout's model, computed on the worker pool and charged like an export. */
+export async function handoutModel(scene: SceneOut, payer: WorkPayer) {
+  await chargeWork(
+    payer.key,
+    handoutWork(scene.targets.length),
+    payer.who,
+    `This scene has ${scene.targets.length} targets; a handout takes at most ${MAX_HANDOUT_TARGETS}.`,
+  );
+  return runCompute('handout', { scene });
 }

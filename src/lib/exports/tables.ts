@@ -110,7 +110,7 @@ export const WINDOWS_COLUMNS = ['name', 'start', 'end', 'duration_min', 'opened_
 /** With no envelope, a target counts as visible when above the apparent horizon. */
 export const HORIZON_ONLY: Envelope = { name: 'horizon', minAltitude: 0 };
 
-export function windowsCsv(scene: SceneOut, from: Date, to: Date): string {
+export function windowsCsv(scene: SceneOut, from: Date, to: Date, opts: { stepSec?: number } = {}): string {
   const site = siteInput(scene.site);
   const mid = new Date((from.getTime() + to.getTime()) / 2);
   const targets: WindowTarget[] = [];
@@ -119,7 +119,7 @@ export function windowsCsv(scene: SceneOut, from: Date, to: Date): string {
     if (st) targets.push({ name: t.name, ...st });
   }
   const env = (scene.envelope as Envelope | null) ?? HORIZON_ONLY;
-  const result = visibilityWindows(site, env, targets, from, to);
+  const result = visibilityWindows(site, env, targets, from, to, opts);
   const rows: Cell[][] = [];
   for (const r of result) {
     if (r.windows.length === 0) {

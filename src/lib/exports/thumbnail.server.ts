@@ -9,8 +9,9 @@ import type { User } from 'lucia';
 import type { DbOrTx } from '../server/db/client';
 import { scenes } from '../server/db/schema';
 import { audit } from '../server/audit';
-import { HttpError, notFound } from '../server/http';
-import { sceneFor, writeTx } from '../server/scenes.server';
+import { HttpError } from '../server/http';
+import { sceneFor, toSceneOut, writeTx } from '../server/scenes.server';
+import { skyThumbnail, thumbnailEtag, thumbnailKey } from '../server/thumbnails/render.server';
 import { readCapped } from '../imports/upload';
 import { isPng } from '../png';
 
@@ -31,9 +32,20 @@ export async function putThumbnail(db: DbOrTx, user: User, sceneId: string, requ
   return { bytes: bytes.length };
 }
 
+/**
+ * The snapshot an editor saved, or else the sky thumbnail made on the server from the scene (its chart
+ * at its time and site; src/lib/server/thumbnails/). Every scene has one, so the dashboard never meets a 404.
+ */
 export async function getThumbnail(db: DbOrTx, user: User, sceneId: string, ifNoneMatch: string | null): Promise<Response> {
   const { row } = await sceneFor(db, user, sceneId, 'scene.read');
-  if (!row.thumbnail) throw notFound('Thumbnail');
+  if (!row.thumbnail) {
+    const scene = await toSceneOut(db, row);
+    const etag = thumbnailEtag(thumbnailKey(scene));
+    const headers = { 'content-type': 'image/png', 'cache-control': 'private, no-cache', etag };
+    if (ifNoneMatch === etag) return new Response(null, { status: 304, headers });
+    const { png } = skyThumbnail(scene);
+    return new Response(new Uint8Array(png), { headers: { ...headers, 'content-length': String(png.length) } });
+  }
   const bytes = new Uint8Array(row.thumbnail);
   const etag = `"${createHash('sha256').update(bytes).digest('base64url').slice(0, 22)}"`;
   const headers = { 'content-type': 'image/png', 'cache-control': 'private, no-cache', etag };

@@ -1,7 +1,7 @@
 /**
  * The all-sky chart as an SVG string: zenithal equidistant, north up, east LEFT (as seen looking up).
  * One drawing for two uses: the printed handout (`ink: 'print'`, on white paper) and the scene thumbnails
- * (`ink: 'screen'`, the dark sky; rasterised on the server, see src/lib/thumbnails/README.md). Every
+ * (`ink: 'screen'`, the dark sky; rasterised on the server, see src/lib/server/thumbnails/README.md). Every
  * colour and line pattern comes from the palette (src/lib/style/palette.ts).
  *
  * Every mark carries data-alt / data-az so a reader (or a test) can check it against the projection
@@ -25,6 +25,14 @@ export interface ChartSvgOptions {
   height?: number;
   /** Fill of the whole picture (thumbnails); default none. */
   background?: boolean;
+  /** Part of the chart to show, [x, y, w, h] in chart units; default the whole chart. */
+  viewBox?: [number, number, number, number];
+  /** Star dots drawn this much larger (a small thumbnail); default 1. */
+  starScale?: number;
+  /** Width and pattern scale of the rings against the sky view's CSS px; default CHART_LINE_SCALE. */
+  lineScale?: number;
+  /** Fill of the sky disc (a palette ink: the daylight band of the scene's time); default the night sky. */
+  skyFill?: string;
 }
 
 /** The chart's lines are drawn at about half the sky view's widths: patterns scale with them. */
@@ -50,14 +58,17 @@ export function chartSvg(chart: ChartModel, opts: ChartSvgOptions): string {
   const { frame, size } = chart;
   const o: string[] = [];
   const sizeAttrs = opts.width && opts.height ? ` width="${opts.width}" height="${opts.height}"` : '';
+  const vb = opts.viewBox ?? [0, 0, size.width, size.height];
+  const starScale = opts.starScale ?? 1;
+  const ls = opts.lineScale ?? CHART_LINE_SCALE;
   o.push(
-    `<svg id="${id}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${size.width} ${size.height}"${sizeAttrs} data-r="${frame.R}" data-cx="${frame.cx}" data-cy="${frame.cy}" role="img" aria-labelledby="${id}-title ${id}-desc">`,
+    `<svg id="${id}" xmlns="http://www.w3.org/2000/svg" viewBox="${vb.join(' ')}"${sizeAttrs} data-r="${frame.R}" data-cx="${frame.cx}" data-cy="${frame.cy}" role="img" aria-labelledby="${id}-title ${id}-desc">`,
     `<title id="${id}-title">All-sky chart: ${escapeXml(opts.title)}</title>`,
     `<desc id="${id}-desc">Zenithal equidistant projection of the sky above the site. Zenith at the centre, horizon on the outer circle, north up and east to the left, as seen lying down looking up. Rings at 30° and 60° altitude.</desc>`,
     `<defs><clipPath id="${id}-clip"><circle cx="${frame.cx}" cy="${frame.cy}" r="${frame.R}"/></clipPath></defs>`,
   );
-  if (opts.background) o.push(`<rect width="${size.width}" height="${size.height}" fill="${k(SURFACE.panel)}"/>`);
-  o.push(`<circle class="horizon" cx="${frame.cx}" cy="${frame.cy}" r="${frame.R}" fill="${k(SURFACE.sky)}" ${strokeAttrs(CIRCLES.horizon, ink)}/>`);
+  if (opts.background) o.push(`<rect x="${vb[0]}" y="${vb[1]}" width="${vb[2]}" height="${vb[3]}" fill="${k(SURFACE.panel)}"/>`);
+  o.push(`<circle class="horizon" cx="${frame.cx}" cy="${frame.cy}" r="${frame.R}" fill="${opts.skyFill ?? k(SURFACE.sky)}" ${strokeAttrs(CIRCLES.horizon, ink, ls)}/>`);
   for (const r of chart.rings) {
     o.push(`<g class="ring"><circle cx="${frame.cx}" cy="${frame.cy}" r="${r.r}" fill="none" ${strokeAttrs(PLAN_LINES.altitudeRing, ink, 1)}/>`);
     if (labels) o.push(`<text x="${frame.cx + 3}" y="${f2(frame.cy - r.r - 2)}" font-size="8" fill="${k(LABELS.labelDim)}">${r.alt}°</text>`);
@@ -65,15 +76,15 @@ export function chartSvg(chart: ChartModel, opts: ChartSvgOptions): string {
   }
   if (chart.skyline) o.push(`<path class="skyline" d="${chart.skyline}" fill="${k(PLAN.mask)}" fill-opacity="0.55" fill-rule="evenodd" stroke="${k(PLAN.maskEdge)}" stroke-width="0.6"/>`);
   if (chart.minAltitudeR !== null) {
-    o.push(`<circle class="envelope-floor" cx="${frame.cx}" cy="${frame.cy}" r="${chart.minAltitudeR}" fill="none" ${strokeAttrs(PLAN_LINES.envelopeFloor, ink)}/>`);
+    o.push(`<circle class="envelope-floor" cx="${frame.cx}" cy="${frame.cy}" r="${chart.minAltitudeR}" fill="none" ${strokeAttrs(PLAN_LINES.envelopeFloor, ink, ls)}/>`);
   }
   o.push(`<g clip-path="url(#${id}-clip)">`);
-  for (const c of chart.circles) o.push(`<path class="circle circle-${c.name}" d="${c.d}" fill="none" ${strokeAttrs(CIRCLES[c.name], ink)}/>`);
+  for (const c of chart.circles) o.push(`<path class="circle circle-${c.name}" d="${c.d}" fill="none" ${strokeAttrs(CIRCLES[c.name], ink, ls)}/>`);
   o.push('</g>');
   o.push('<g class="stars">');
   for (const s of chart.stars) {
     o.push(
-      `<circle class="star" cx="${s.x}" cy="${s.y}" r="${s.r}" fill="${k(BODIES.star)}" data-hr="${s.hr}"${s.name ? ` data-name="${escapeXml(s.name)}"` : ''} data-alt="${s.alt.toFixed(4)}" data-az="${s.az.toFixed(4)}"/>`,
+      `<circle class="star" cx="${s.x}" cy="${s.y}" r="${f2(s.r * starScale)}" fill="${k(BODIES.star)}" data-hr="${s.hr}"${s.name ? ` data-name="${escapeXml(s.name)}"` : ''} data-alt="${s.alt.toFixed(4)}" data-az="${s.az.toFixed(4)}"/>`,
     );
   }
   if (labels) {
@@ -115,7 +126,7 @@ export function chartSvg(chart: ChartModel, opts: ChartSvgOptions): string {
     );
   }
   o.push('</g>');
-  for (const c of chart.cardinals) {
+  for (const c of labels ? chart.cardinals : []) {
     o.push(`<text class="cardinal" x="${c.x}" y="${c.y + 5}" text-anchor="middle" font-size="15" font-weight="700" fill="${k(LABELS.cardinal)}">${c.label}</text>`);
   }
   if (labels) {

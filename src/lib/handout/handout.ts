@@ -18,6 +18,7 @@ import {
   starsToHorizontal,
   type BodyName,
   type SkyEvent,
+  type SkyFrame,
 } from '../sky';
 import { cataloguePosition, siteInput, skyTarget } from '../exports/sky-targets';
 import { altitudeRings, cardinalPositions, project, radiusOf, skyPath, skylinePath, starRadius, type ChartFrame } from './chart';
@@ -100,6 +101,92 @@ export function buildHandout(scene: SceneOut, opts: HandoutOptions = {}): Handou
   const from = new Date(at.getTime() - half);
   const to = new Date(at.getTime() + half);
 
+  const chart = buildChart(scene, { frame: f });
+  const places = chart.places;
+
+  // Targets
+  const targets: HandoutTarget[] = [];
+  const events: HandoutEvent[] = [];
+  const push = (list: SkyEvent[], subject: string) => {
+    for (const e of list) events.push({ time: iso(e.time), kind: e.kind, subject, what: `${subject} ${EVENT_LABEL[e.kind] ?? e.kind}` });
+  };
+  const sunEv = skyEvents(site, { body: 'sun' }, from, to);
+  push(sunEv.events, 'Sun');
+  const moonEv = skyEvents(site, { body: 'moon' }, from, to);
+  push(moonEv.events.filter((e) => e.kind !== 'transit'), 'Moon');
+  const solarReasons: string[] = [];
+  const sunAvoid = Math.max(scene.envelope?.sunAvoidance ?? 0, 15);
+  for (const t of scene.targets) {
+    const st = skyTarget(t, at);
+    if (!st) continue;
+    const o = observeAt(f, st);
+    const ev = skyEvents(site, st, from, to);
+    const first = (k: string) => ev.events.find((e) => e.kind === k);
+    const pos = cataloguePosition(t);
+    targets.push({
+      name: t.name,
+      kind: t.kind,
+      ra: pos?.ra ?? null,
+      dec: pos?.dec ?? null,
+      alt: o.altDeg,
+      az: o.azDeg,
+      airmass: o.airmass,
+      rise: first('rise') ? iso(first('rise')!.time) : null,
+      transit: first('transit') ? iso(first('transit')!.time) : null,
+      set: first('set') ? iso(first('set')!.time) : null,
+      note: ev.alwaysUp ? 'up all window' : ev.alwaysDown ? 'below the horizon all window' : '',
+    });
+    // The Sun's and the Moon's events are listed once already, under their own names.
+    if (!(t.kind === 'body' && (t.body === 'sun' || t.body === 'moon'))) push(ev.events, t.name);
+    if (t.kind === 'body' && t.body === 'sun') solarReasons.push(`the target "${t.name}" is the Sun`);
+    else if ('raDeg' in st || 'body' in st) {
+      const sep = separationDeg(o.azDeg, o.altDeg, places.sun.azDeg, places.sun.altDeg);
+      if (sep < sunAvoid && places.sun.altDeg > SUN_UP_APPARENT_ALT - 1) solarReasons.push(`the target "${t.name}" is ${sep.toFixed(1)}° from the Sun`);
+    }
+  }
+  events.sort((a, b) => a.time.localeCompare(b.time));
+
+  // Solar caution
+  if (places.sun.altDeg > SUN_UP_APPARENT_ALT) solarReasons.unshift(`the Sun is above the horizon at the scene time (altitude ${places.sun.altDeg.toFixed(1)}°)`);
+  for (const s of scene.steps) {
+    const sf = skyFrame(site, new Date(s.time));
+    const sun = bodyPlace(sf, 'sun');
+    if (sun.altDeg > SUN_UP_APPARENT_ALT) solarReasons.push(`the Sun is up at step "${s.title || s.id}" (${sun.altDeg.toFixed(1)}°)`);
+  }
+
+  const moon = places.moon;
+  return {
+    title: scene.title,
+    description: scene.description,
+    site: scene.site,
+    time: scene.time,
+    chart: chart.model,
+    events,
+    window: { from: iso(from), to: iso(to) },
+    moon: {
+      phaseName: moonPhaseName(moon.phaseLongitudeDeg ?? 0),
+      illuminatedPercent: Math.round((moon.illuminatedFraction ?? 0) * 100),
+      ageDays: moon.ageDays ?? null,
+      alt: moon.altDeg,
+      quarters: moonPhases(new Date(at.getTime() - 15 * 86400000), new Date(at.getTime() + 15 * 86400000)).map((q) => ({ kind: EVENT_LABEL[q.kind] ?? q.kind, time: iso(q.time) })),
+    },
+    sun: { alt: places.sun.altDeg, up: places.sun.altDeg > SUN_UP_APPARENT_ALT },
+    targets,
+    steps: scene.steps.map((s) => ({ id: s.id, title: s.title, time: s.time, caption: s.caption })),
+    solarCaution: solarReasons.length > 0,
+    solarReasons,
+  };
+}
+
+/**
+ * The all-sky chart of a scene at its time: stars to magnitude 4.5 (or the scene's limit), the celestial
+ * equator, ecliptic and meridian, the Sun, Moon and planets and the targets above the horizon, the
+ * skyline of the horizon mask and the envelope's altitude floor. Used by the handout and the thumbnails.
+ * `frame` reuses an instant's SkyFrame already computed by the caller.
+ */
+export function buildChart(scene: SceneOut, opts: { frame?: SkyFrame } = {}): { model: HandoutModel['chart']; places: Record<BodyName, ReturnType<typeof bodyPlace>> } {
+  const at = new Date(scene.time);
+  const f = opts.frame ?? skyFrame(siteInput(scene.site), at);
   // Chart: stars
   const cat = loadCatalogue();
   const alt = new Float64Array(cat.count);
@@ -133,69 +220,20 @@ export function buildHandout(scene: SceneOut, opts: HandoutOptions = {}): Handou
     return { id: b, label: BODY_LABEL[b], kind: 'body', x: round(p.x), y: round(p.y), alt: places[b].altDeg, az: places[b].azDeg };
   });
 
-  // Targets
-  const targets: HandoutTarget[] = [];
-  const targetMarks: ChartMark[] = [];
-  const events: HandoutEvent[] = [];
-  const push = (list: SkyEvent[], subject: string) => {
-    for (const e of list) events.push({ time: iso(e.time), kind: e.kind, subject, what: `${subject} ${EVENT_LABEL[e.kind] ?? e.kind}` });
-  };
-  const sunEv = skyEvents(site, { body: 'sun' }, from, to);
-  push(sunEv.events, 'Sun');
-  const moonEv = skyEvents(site, { body: 'moon' }, from, to);
-  push(moonEv.events.filter((e) => e.kind !== 'transit'), 'Moon');
-  const solarReasons: string[] = [];
-  const sunAvoid = Math.max(scene.envelope?.sunAvoidance ?? 0, 15);
+  // Targets above the horizon
+  const targets: ChartMark[] = [];
   for (const t of scene.targets) {
     const st = skyTarget(t, at);
     if (!st) continue;
     const o = observeAt(f, st);
-    const ev = skyEvents(site, st, from, to);
-    const first = (k: string) => ev.events.find((e) => e.kind === k);
-    const pos = cataloguePosition(t);
-    targets.push({
-      name: t.name,
-      kind: t.kind,
-      ra: pos?.ra ?? null,
-      dec: pos?.dec ?? null,
-      alt: o.altDeg,
-      az: o.azDeg,
-      airmass: o.airmass,
-      rise: first('rise') ? iso(first('rise')!.time) : null,
-      transit: first('transit') ? iso(first('transit')!.time) : null,
-      set: first('set') ? iso(first('set')!.time) : null,
-      note: ev.alwaysUp ? 'up all window' : ev.alwaysDown ? 'below the horizon all window' : '',
-    });
-    // The Sun's and the Moon's events are listed once already, under their own names.
-    if (!(t.kind === 'body' && (t.body === 'sun' || t.body === 'moon'))) push(ev.events, t.name);
-    if (o.altDeg >= 0) {
-      const p = project(o.altDeg, o.azDeg, CHART);
-      targetMarks.push({ id: t.id, label: t.name, kind: t.kind, x: round(p.x), y: round(p.y), alt: o.altDeg, az: o.azDeg });
-    }
-    if (t.kind === 'body' && t.body === 'sun') solarReasons.push(`the target "${t.name}" is the Sun`);
-    else if ('raDeg' in st || 'body' in st) {
-      const sep = separationDeg(o.azDeg, o.altDeg, places.sun.azDeg, places.sun.altDeg);
-      if (sep < sunAvoid && places.sun.altDeg > SUN_UP_APPARENT_ALT - 1) solarReasons.push(`the target "${t.name}" is ${sep.toFixed(1)}° from the Sun`);
-    }
+    if (o.altDeg < 0) continue;
+    const p = project(o.altDeg, o.azDeg, CHART);
+    targets.push({ id: t.id, label: t.name, kind: t.kind, x: round(p.x), y: round(p.y), alt: o.altDeg, az: o.azDeg });
   }
-  events.sort((a, b) => a.time.localeCompare(b.time));
-
-  // Solar caution
-  if (places.sun.altDeg > SUN_UP_APPARENT_ALT) solarReasons.unshift(`the Sun is above the horizon at the scene time (altitude ${places.sun.altDeg.toFixed(1)}°)`);
-  for (const s of scene.steps) {
-    const sf = skyFrame(site, new Date(s.time));
-    const sun = bodyPlace(sf, 'sun');
-    if (sun.altDeg > SUN_UP_APPARENT_ALT) solarReasons.push(`the Sun is up at step "${s.title || s.id}" (${sun.altDeg.toFixed(1)}°)`);
-  }
-
-  const moon = places.moon;
   const envelope = scene.envelope;
   return {
-    title: scene.title,
-    description: scene.description,
-    site: scene.site,
-    time: scene.time,
-    chart: {
+    places,
+    model: {
       frame: CHART,
       size: CHART_SIZE,
       rings: altitudeRings(CHART).map((r) => ({ alt: r.alt, r: round(r.r) })),
@@ -205,22 +243,8 @@ export function buildHandout(scene: SceneOut, opts: HandoutOptions = {}): Handou
       minAltitudeR: envelope?.minAltitude !== undefined && envelope.minAltitude > 0 ? round(radiusOf(envelope.minAltitude, CHART.R)) : null,
       stars,
       bodies,
-      targets: targetMarks,
+      targets,
     },
-    events,
-    window: { from: iso(from), to: iso(to) },
-    moon: {
-      phaseName: moonPhaseName(moon.phaseLongitudeDeg ?? 0),
-      illuminatedPercent: Math.round((moon.illuminatedFraction ?? 0) * 100),
-      ageDays: moon.ageDays ?? null,
-      alt: moon.altDeg,
-      quarters: moonPhases(new Date(at.getTime() - 15 * 86400000), new Date(at.getTime() + 15 * 86400000)).map((q) => ({ kind: EVENT_LABEL[q.kind] ?? q.kind, time: iso(q.time) })),
-    },
-    sun: { alt: places.sun.altDeg, up: places.sun.altDeg > SUN_UP_APPARENT_ALT },
-    targets,
-    steps: scene.steps.map((s) => ({ id: s.id, title: s.title, time: s.time, caption: s.caption })),
-    solarCaution: solarReasons.length > 0,
-    solarReasons,
   };
 }
 

@@ -2,6 +2,7 @@
  * The scene document shared by the server (validation, storage) and the client (editor, view).
  * Pure: zod only. Angles in degrees, times ISO 8601 UTC.
  */
+import { boundedArray } from '../bounded-array';
 import { z } from 'zod';
 
 export const isoUtc = z
@@ -110,7 +111,7 @@ export const pinSchema = z.object({
   kind: z.enum(['label', 'arrow', 'arc', 'region']),
   frame: z.enum(['horizontal', 'equatorial']),
   /** [azimuth, altitude] (horizontal) or [ra, dec] (equatorial), degrees; label 1 point, arrow/arc ≥ 2, region ≥ 3. */
-  points: z.array(z.tuple([z.number().min(0).max(360), z.number().min(-90).max(90)])).min(1).max(64),
+  points: boundedArray(z.tuple([z.number().min(0).max(360), z.number().min(-90).max(90)]), 64).refine((p) => p.length >= 1, 'needs at least one point'),
   label: z.string().max(200).default(''),
   color: z.string().regex(/^#[0-9a-fA-F]{6}$/).optional(),
 });

@@ -82,15 +82,54 @@ export function parseQuery<T>(schema: ZodType<T, ZodTypeDef, unknown>, url: URL)
 
 export const MAX_JSON_BYTES = 1_000_000;
 
-/** Reads a JSON body: 400 `malformed_json` when it does not parse, 400 naming the field when it does not validate. */
-export async function parseJson<T>(schema: ZodType<T, ZodTypeDef, unknown>, request: Request): Promise<T> {
-  const len = Number(request.headers.get('content-length') ?? 0);
-  if (len > MAX_JSON_BYTES) throw new HttpError(413, 'too_large', 'Request body too large.');
-  const text = await request.text();
-  if (text.length > MAX_JSON_BYTES) throw new HttpError(413, 'too_large', 'Request body too large.');
+/** `application/json` or a `+json` type; anything else (a form, `text/plain`) is not read as JSON. */
+const JSON_TYPE = /^application\/(?:[\w.-]+\+)?json\s*(?:;|$)/i;
+
+/**
+ * Reads at most `capBytes` of a body: refused from Content-Length when it is announced, otherwise as soon
+ * as the streamed count passes the cap (a chunked body is never buffered whole first).
+ */
+export async function readBodyCapped(request: Request, capBytes: number): Promise<Uint8Array> {
+  const declared = request.headers.get('content-length');
+  if (declared !== null && Number(declared) > capBytes) throw new HttpError(413, 'too_large', 'Request body too large.');
+  if (!request.body) return new Uint8Array(0);
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > capBytes) {
+      await reader.cancel().catch(() => {});
+      throw new HttpError(413, 'too_large', 'Request body too large.', undefined, undefined, { connection: 'close' });
+    }
+    chunks.push(value);
+  }
+  if (chunks.length === 1) return chunks[0]!;
+  const out = new Uint8Array(total);
+  let off = 0;
+  for (const c of chunks) {
+    out.set(c, off);
+    off += c.byteLength;
+  }
+  return out;
+}
+
+/**
+ * Reads a JSON body: 413 past `capBytes` (checked before anything is parsed), 415 when it is not sent as
+ * JSON (a `text/plain` body is what a cross-site form can send without a preflight), 400 `malformed_json`
+ * when it does not parse, 400 naming the field when it does not validate.
+ */
+export async function parseJson<T>(schema: ZodType<T, ZodTypeDef, unknown>, request: Request, capBytes = MAX_JSON_BYTES): Promise<T> {
+  const bytes = await readBodyCapped(request, capBytes);
+  const type = request.headers.get('content-type');
+  if (bytes.byteLength > 0 && !(type && JSON_TYPE.test(type))) {
+    throw new HttpError(415, 'unsupported_media_type', 'Send the body as JSON (Content-Type: application/json).');
+  }
   let raw: unknown;
   try {
-    raw = text.length ? JSON.parse(text) : {};
+    raw = bytes.byteLength ? JSON.parse(new TextDecoder().decode(bytes)) : {};
   } catch {
     throw new HttpError(400, 'malformed_json', 'The request body is not valid JSON.');
   }

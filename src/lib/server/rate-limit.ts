@@ -5,14 +5,15 @@ import { rateLimits } from './db/schema';
 
 /**
  * Fixed-window counter kept in the database so that several app instances share one limit.
- * Returns the count after this hit; throws 429 with Retry-After when over `limit`.
+ * Returns the count after this hit; throws 429 with Retry-After when over `limit`. `cost` > 1 charges a
+ * hit by its weight (the compute routes charge their estimated work).
  */
-export async function rateLimit(key: string, limit: number, windowSec: number, now = Date.now()): Promise<number> {
+export async function rateLimit(key: string, limit: number, windowSec: number, now = Date.now(), cost = 1): Promise<number> {
   const windowStart = Math.floor(now / 1000 / windowSec) * windowSec;
   const rows = await db
     .insert(rateLimits)
-    .values({ key, windowStart, count: 1 })
-    .onConflictDoUpdate({ target: [rateLimits.key, rateLimits.windowStart], set: { count: sql`${rateLimits.count} + 1` } })
+    .values({ key, windowStart, count: cost })
+    .onConflictDoUpdate({ target: [rateLimits.key, rateLimits.windowStart], set: { count: sql`${rateLimits.count} + ${cost}` } })
     .returning({ count: rateLimits.count });
   const count = rows[0]?.count ?? 1;
   if (count > limit) {

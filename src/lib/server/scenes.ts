@@ -4,6 +4,7 @@
  */
 import { z, type AnyZodObject, type ZodTypeAny } from 'zod';
 import { isPng } from '../png';
+import { boundedArray } from '../bounded-array';
 import {
   cameraSchema,
   isoUtc,
@@ -38,7 +39,10 @@ export function knownKeysOnly<T extends ZodTypeAny>(shapeOf: AnyZodObject, schem
         return;
       }
       for (const k of Object.keys(v)) {
-        if (!known.has(k)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: [k], message: 'is not a known field' });
+        if (known.has(k)) continue;
+        // The first unknown key is enough to refuse (a body of a million keys is one issue, not a million).
+        ctx.addIssue({ code: z.ZodIssueCode.custom, path: [k], message: 'is not a known field' });
+        return;
       }
     })
     .pipe(schema);
@@ -46,9 +50,7 @@ export function knownKeysOnly<T extends ZodTypeAny>(shapeOf: AnyZodObject, schem
 
 /** Ids inside a list (targets, pins, steps) must be unique: steps, comments and pins point at them. */
 function uniqueIds<T extends { id: string }>(item: z.ZodType<T, z.ZodTypeDef, unknown>, max: number) {
-  return z
-    .array(item)
-    .max(max)
+  return boundedArray(item, max)
     .superRefine((list, ctx) => {
       const seen = new Set<string>();
       list.forEach((x, i) => {

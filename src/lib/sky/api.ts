@@ -10,6 +10,8 @@ import { hasMotion, type SpaceMotion } from './motion';
 import { skyEvents } from './events';
 import { visibilityWindows, type WindowTarget } from './windows';
 import { envelopeSchema } from './envelope';
+import { boundedArray } from '../bounded-array';
+import { windowsGridStepSec } from './night';
 import type { SiteInput } from './frames';
 
 export const MAX_SPAN_DAYS = 31;
@@ -139,7 +141,7 @@ export const windowsBodySchema = z
       yp: num(-2, 2, POLAR).optional(),
     }),
     envelope: envelopeSchema,
-    targets: z.array(windowTargetSchema).max(MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
+    targets: boundedArray(windowTargetSchema, MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
     from: instant,
     to: instant,
   })
@@ -196,12 +198,7 @@ export function eventsResponse(q: EventsQuery) {
  * grid so one request stays near 5 million limit evaluations at most (crossings are still refined
  * to ≤ 1 s; only windows shorter than the step can be missed). Reported back as `stepSec`.
  */
-export function windowsStepSec(spanMs: number, nTargets: number): number {
-  const base = spanMs <= 2 * 86400000 ? 120 : 300;
-  const budget = 5e6;
-  const needed = ((spanMs / 1000) * Math.max(1, nTargets)) / budget;
-  return Math.min(1800, Math.max(base, Math.ceil(needed / 60) * 60));
-}
+export const windowsStepSec = windowsGridStepSec;
 
 export function windowsResponse(b: WindowsBody) {
   const targets: WindowTarget[] = b.targets.map((t) =>

@@ -12,6 +12,7 @@
  */
 import { z } from 'zod';
 import { DEG, RAD, wrap360 } from './math';
+import { boundedArray } from '../bounded-array';
 
 const finite = z.number().finite();
 const az = finite.min(0, 'azimuth must be 0–360').max(360, 'azimuth must be 0–360');
@@ -23,11 +24,11 @@ export const envelopeSchema = z
     name: opt(z.string().max(200)),
     minAltitude: opt(alt),
     maxAltitude: opt(alt),
-    azimuthRanges: opt(z.array(z.tuple([az, az])).max(360)),
+    azimuthRanges: opt(boundedArray(z.tuple([az, az]), 360)),
     keyholeRadius: opt(finite.min(0).max(90)),
     sunAvoidance: opt(finite.min(0).max(180)),
     moonAvoidance: opt(finite.min(0).max(180)),
-    horizonMask: opt(z.array(z.tuple([az, alt])).max(36000)),
+    horizonMask: opt(boundedArray(z.tuple([az, alt]), 36000)),
     hourAngleLimits: opt(
       z.tuple([finite.min(-12).max(12), finite.min(-12).max(12)]).refine((v) => v[0] <= v[1], 'hourAngleLimits: min must not exceed max'),
     ),

@@ -120,3 +120,20 @@ describe('consumers read the palette', () => {
     expect(readFileSync('src/pages/index.astro', 'utf8')).toMatch(/from '..\/lib\/style\/palette'/);
   });
 });
+
+describe('favicon', () => {
+  it('public/favicon.svg is the palette drawing, and favicon.ico holds it as 16, 32 and 48 px PNGs (ICONDIR/ICONDIRENTRY layout)', async () => {
+    const { faviconSvg } = await import('../../../src/lib/style/favicon');
+    expect(readFileSync('public/favicon.svg', 'utf8').trim()).toBe(faviconSvg()); // run `npm run favicon` if this fails
+    const ico = readFileSync('public/favicon.ico');
+    expect([ico.readUInt16LE(0), ico.readUInt16LE(2), ico.readUInt16LE(4)]).toEqual([0, 1, 3]);
+    for (let i = 0; i < 3; i++) {
+      const e = 6 + 16 * i;
+      const [size, len, off] = [ico.readUInt8(e), ico.readUInt32LE(e + 8), ico.readUInt32LE(e + 12)];
+      expect(size).toBe([16, 32, 48][i]);
+      expect(ico.subarray(off + 1, off + 4).toString('latin1')).toBe('PNG');
+      expect(ico.readUInt32BE(off + 16)).toBe(size); // IHDR width
+      expect(off + len).toBeLessThanOrEqual(ico.length);
+    }
+  });
+});

@@ -10,5 +10,5 @@ import { positionsResponse } from '../../../../lib/exports/responses';
  */
 export const GET = route(async ({ locals, params, url }) => {
   const user = requireUser(locals);
-  return positionsResponse(await sceneForMember(db, user, params.id!), url);
+  return positionsResponse(await sceneForMember(db, user, params.id!), url, { key: `user:${user.id}`, who: 'member' });
 });

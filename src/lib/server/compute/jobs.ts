@@ -1,0 +1,49 @@
+/**
+ * The compute registry: every job the worker pool can run, as a PURE function from a structured-clonable
+ * input to a structured-clonable output (no database, no request, no globals that change). The worker
+ * (`worker.ts`) imports this object; adding a job is adding one entry here. Inputs cross a thread
+ * boundary by structured clone: plain objects, arrays, strings, numbers, `Date`s — no class instances,
+ * no functions. A job signals a problem of its input by returning it (see `sceneFile`), not by throwing:
+ * errors lose their fields on the way back from a thread.
+ */
+import { windowsResponse, type WindowsBody } from '../../sky/api';
+import { positionsCsv, windowsCsv } from '../../exports/tables';
+import { buildHandout } from '../../handout/handout';
+import { sceneFileSchema } from '../../exports/scene-json';
+import type { SceneOut } from '../scenes';
+
+export interface ComputeIssue {
+  field?: string;
+  message: string;
+}
+
+export const jobs = {
+  /** POST /api/sky/windows: a validated body → the response body. */
+  windows: (input: WindowsBody) => windowsResponse(input),
+  /** export.csv: positions of every target of a scene at one instant (next rise/transit/set within 48 h). */
+  positionsCsv: (input: { scene: SceneOut; at: Date }) => positionsCsv(input.scene, input.at),
+  /** export-windows.csv / windows.csv: visibility windows of every target over a span. */
+  windowsCsv: (input: { scene: SceneOut; from: Date; to: Date; stepSec?: number }) => windowsCsv(input.scene, input.from, input.to, { stepSec: input.stepSec }),
+  /** The printable handout's model (chart, events, targets) of a scene. */
+  handout: (input: { scene: SceneOut }) => buildHandout(input.scene),
+  /** A scene file (parsed JSON) checked against the `armilla-scene` schema. */
+  sceneFile: (doc: unknown) => {
+    const r = sceneFileSchema.safeParse(doc);
+    if (r.success) return { ok: true as const, file: r.data };
+    const issue = r.error.issues[0];
+    const field = issue?.path.length ? issue.path.join('.') : undefined;
+    return { ok: false as const, issue: { field, message: issue?.message ?? 'invalid' } satisfies ComputeIssue };
+  },
+};
+
+export type Jobs = typeof jobs;
+export type ComputeKind = keyof Jobs;
+export type ComputeInput<K extends ComputeKind> = Parameters<Jobs[K]>[0];
+export type ComputeOutput<K extends ComputeKind> = Awaited<ReturnType<Jobs[K]>>;
+
+/** Runs one job in the calling thread (the worker's body, and the in-process fallback of dev and unit tests). */
+export function runJob<K extends ComputeKind>(kind: K, input: ComputeInput<K>): ComputeOutput<K> {
+  const job = jobs[kind] as ((i: ComputeInput<K>) => ComputeOutput<K>) | undefined;
+  if (typeof job !== 'function' || !Object.prototype.hasOwnProperty.call(jobs, kind)) throw new Error(`unknown compute job "${String(kind)}"`);
+  return job(input);
+}
