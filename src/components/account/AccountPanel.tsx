@@ -5,7 +5,7 @@ import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { Card } from '../ui/Card';
 import { TextField } from '../ui/Field';
-import { api, ApiError } from '../ui/api';
+import { apiPatch, apiPost, ApiError } from '../../lib/client/api';
 import { zodResolver } from '../ui/zod-resolver';
 import { passwordForm, profileForm } from './schemas';
 
@@ -17,7 +17,7 @@ function ProfileCard({ name, email }: { name: string; email: string }) {
   const onSubmit = handleSubmit(async (v) => {
     setNote(null);
     try {
-      await api('PATCH', '/api/me', v);
+      await apiPatch('/api/me', v);
       setNote({ tone: 'success', text: 'Saved.' });
     } catch (e) {
       setNote({ tone: 'error', text: message(e) });
@@ -49,7 +49,7 @@ function PasswordCard() {
   const onSubmit = handleSubmit(async (v) => {
     setNote(null);
     try {
-      await api('POST', '/api/auth/password', { currentPassword: v.currentPassword, newPassword: v.newPassword });
+      await apiPost('/api/auth/password', { currentPassword: v.currentPassword, newPassword: v.newPassword });
       reset();
       setNote({ tone: 'success', text: 'Password changed. Your other sessions have been signed out.' });
     } catch (e) {
@@ -77,7 +77,7 @@ export default function AccountPanel({ name, email }: { name: string; email: str
   const signOut = async () => {
     setBusy(true);
     try {
-      await api('POST', '/api/auth/sign-out');
+      await apiPost('/api/auth/sign-out');
     } finally {
       window.location.assign('/');
     }

@@ -4,7 +4,7 @@ import type { z } from 'zod';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
-import { api, ApiError } from '../ui/api';
+import { apiPost, ApiError } from '../../lib/client/api';
 import { zodResolver } from '../ui/zod-resolver';
 import { resetConfirmForm } from './schemas';
 
@@ -16,7 +16,7 @@ export default function ResetConfirmForm({ token }: { token: string }) {
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     try {
-      await api('POST', '/api/auth/password-reset/confirm', { token, password: v.password });
+      await apiPost('/api/auth/password-reset/confirm', { token, password: v.password });
       window.location.assign('/dashboard');
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'Could not reach the server; try again.');

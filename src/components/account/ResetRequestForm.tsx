@@ -4,7 +4,7 @@ import type { z } from 'zod';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
-import { api, ApiError } from '../ui/api';
+import { apiPost, ApiError } from '../../lib/client/api';
 import { zodResolver } from '../ui/zod-resolver';
 import { resetRequestForm } from './schemas';
 
@@ -17,7 +17,7 @@ export default function ResetRequestForm() {
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     try {
-      await api('POST', '/api/auth/password-reset', v);
+      await apiPost('/api/auth/password-reset', v);
       setSent(true);
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'Could not reach the server; try again.');

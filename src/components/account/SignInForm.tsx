@@ -4,7 +4,7 @@ import type { z } from 'zod';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
-import { api, ApiError, safeNext } from '../ui/api';
+import { apiPost, ApiError, safeNext } from '../../lib/client/api';
 import { zodResolver } from '../ui/zod-resolver';
 import { signInForm } from './schemas';
 
@@ -16,7 +16,7 @@ export default function SignInForm({ next }: { next?: string | null }) {
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     try {
-      await api('POST', '/api/auth/sign-in', v);
+      await apiPost('/api/auth/sign-in', v);
       window.location.assign(safeNext(next));
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'Could not reach the server; try again.');

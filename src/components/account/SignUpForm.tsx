@@ -4,7 +4,7 @@ import type { z } from 'zod';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
-import { api, ApiError, safeNext } from '../ui/api';
+import { apiPost, ApiError, safeNext } from '../../lib/client/api';
 import { zodResolver } from '../ui/zod-resolver';
 import { signUpForm } from './schemas';
 
@@ -20,7 +20,7 @@ export default function SignUpForm({ next, personalTeam = true, email = '' }: { 
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     try {
-      await api('POST', '/api/auth/sign-up', { ...v, personalTeam });
+      await apiPost('/api/auth/sign-up', { ...v, personalTeam });
       window.location.assign(safeNext(next));
     } catch (e) {
       if (e instanceof ApiError && (e.field === 'email' || e.field === 'password' || e.field === 'name')) setFieldError(e.field, { message: e.message });

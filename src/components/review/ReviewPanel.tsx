@@ -2,9 +2,10 @@
  * Review: comments anchored to a sky position (drawn as markers on the sphere) or to a step; replies;
  * resolve / reopen; filter open / resolved; deep links #comment-<id>.
  */
+import { keys, useCommentList } from '../../lib/client/queries';
 import { useEffect, useId, useMemo, useState } from 'react';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { apiGet, apiPatch, apiPost, errorText } from '../../lib/client/api';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { apiPatch, apiPost, errorText } from '../../lib/client/api';
 import type { Anchor, CommentOut } from '../../lib/contracts/comment';
 import type { Step } from '../../lib/contracts/scene-doc';
 import { describeAnchor, threads, timeAgo } from '../../lib/client/scene-view';
@@ -17,18 +18,8 @@ export type ReviewAccess =
   | { kind: 'member'; sceneId: string; canComment: boolean; canResolve: boolean }
   | { kind: 'guest'; token: string; canComment: boolean };
 
-export function commentsKey(a: ReviewAccess) {
-  return a.kind === 'member' ? ['comments', a.sceneId] : ['shared-comments', a.token];
-}
-
-export function useComments(a: ReviewAccess, enabled = true) {
-  return useQuery({
-    queryKey: commentsKey(a),
-    enabled,
-    refetchInterval: 15_000,
-    queryFn: () => apiGet<{ comments: CommentOut[] }>(a.kind === 'member' ? `/api/scenes/${a.sceneId}/comments` : `/api/shared/${encodeURIComponent(a.token)}/comments`).then((r) => r.comments),
-  });
-}
+export const commentsKey = (a: ReviewAccess) => keys.comments(a);
+export const useComments = useCommentList;
 
 const GUEST_NAME_KEY = 'armilla.guestName';
 

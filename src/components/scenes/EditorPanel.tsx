@@ -1,12 +1,10 @@
 /** The scene's fields: editors change them (autosaved), viewers and reviewers read them. */
+import { keys, useEnvelopes, useSites } from '../../lib/client/queries';
 import { useEffect, useMemo, useState, useId } from 'react';
-import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { useQueryClient } from '@tanstack/react-query';
 import { cameraSchema, LAYER_KEYS, siteSchema, type Camera, type LayerKey, type Layers, type Site } from '../../lib/contracts/scene-doc';
 import { envelopeSchema } from '../../lib/contracts/envelope';
-import { apiGet } from '../../lib/client/api';
-import type { EnvelopeOut } from '../../lib/contracts/envelope';
 import type { SceneOut } from '../../lib/contracts/scene';
-import type { SiteOut } from '../../lib/contracts/site';
 import { formatInZone, inputUtcToIso, isoToInputUtc } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
 import { INPUT, LABEL, NumberField, Section } from './controls';
@@ -123,7 +121,7 @@ export function SiteForm({ value, onApply, submitLabel = 'Apply site' }: { value
 
 function SiteSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; readOnly: boolean }) {
   const id = useId();
-  const sites = useQuery({ queryKey: ['sites', scene.teamId], queryFn: () => apiGet<{ sites: SiteOut[] }>(`/api/teams/${scene.teamId}/sites`), enabled: !readOnly });
+  const sites = useSites(scene.teamId, !readOnly);
   const s = scene.site;
   return (
     <div className="flex flex-col gap-3">
@@ -251,7 +249,7 @@ const ENV_NUMBERS = [
 function EnvelopeSection({ scene, edit, readOnly, sync }: { scene: SceneOut; edit: Edit; readOnly: boolean; sync?: SceneSync }) {
   const id = useId();
   const qc = useQueryClient();
-  const list = useQuery({ queryKey: ['envelopes', scene.teamId], queryFn: () => apiGet<{ envelopes: EnvelopeOut[] }>(`/api/teams/${scene.teamId}/envelopes`) });
+  const list = useEnvelopes(scene.teamId);
   const [err, setErr] = useState<string | null>(null);
   const mode = scene.envelopeId ? 'team' : scene.envelope ? 'inline' : 'none';
   const env = (scene.envelope ?? { name: 'Inline envelope' }) as Record<string, unknown>;
@@ -347,7 +345,7 @@ function EnvelopeSection({ scene, edit, readOnly, sync }: { scene: SceneOut; edi
               currentMask={Array.isArray(env.horizonMask) ? (env.horizonMask as [number, number][]) : null}
               onApplyInline={(horizonMask) => setInline({ horizonMask })}
               onDone={async () => {
-                await qc.invalidateQueries({ queryKey: ['envelopes', scene.teamId] });
+                await qc.invalidateQueries({ queryKey: keys.envelopes(scene.teamId) });
                 await sync?.reload();
               }}
             />

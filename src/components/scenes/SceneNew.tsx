@@ -1,12 +1,12 @@
 /** /scenes/new: a blank scene, one from a team site, or a copy of an existing scene. */
+import { useScenes, useSites } from '../../lib/client/queries';
 import { useId, useState } from 'react';
-import { useMutation, useQuery } from '@tanstack/react-query';
+import { useMutation } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { apiGet, apiPost, errorText } from '../../lib/client/api';
+import { apiPost, errorText } from '../../lib/client/api';
 import type { SceneOut } from '../../lib/contracts/scene';
-import type { SiteOut } from '../../lib/contracts/site';
 import { inputUtcToIso } from '../../lib/client/scene-view';
 import type { Site } from '../../lib/contracts/scene-doc';
 import { SiteForm } from './EditorPanel';
@@ -29,8 +29,8 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
   const [siteId, setSiteId] = useState('');
   const [copyOf, setCopyOf] = useState(fromSceneId ?? '');
   const [err, setErr] = useState<string | null>(null);
-  const sites = useQuery({ queryKey: ['sites', teamId], enabled: !!teamId, queryFn: () => apiGet<{ sites: SiteOut[] }>(`/api/teams/${teamId}/sites`) });
-  const scenes = useQuery({ queryKey: ['scenes', teamId], enabled: !!teamId, queryFn: () => apiGet<{ scenes: { id: string; title: string }[] }>(`/api/scenes?teamId=${encodeURIComponent(teamId)}`) });
+  const sites = useSites(teamId, !!teamId);
+  const scenes = useScenes(teamId, !!teamId);
   const create = useMutation({
     mutationFn: () => {
       const iso = inputUtcToIso(time);

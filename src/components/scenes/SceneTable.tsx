@@ -2,14 +2,14 @@
  * The dashboard's scene list: search, sort, filter by site and author, pages of 10, thumbnails; and the
  * team's recent activity.
  */
+import { useActivity, useMembers, useScenes } from '../../lib/client/queries';
 import { useId, useMemo, useState } from 'react';
-import { useQuery } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
-import { apiGet, errorText } from '../../lib/client/api';
+import { errorText } from '../../lib/client/api';
 import { timeAgo } from '../../lib/client/scene-view';
-import { filterScenes, type SceneListRow, type SortKey } from '../../lib/client/scene-list';
+import { filterScenes, type SortKey } from '../../lib/client/scene-list';
 import { INPUT, LABEL } from './controls';
 
 const PAGE = 10;
@@ -39,15 +39,6 @@ function Thumb({ id, title, version }: { id: string; title: string; version?: nu
   );
 }
 
-interface Activity {
-  id: string | number;
-  at: string;
-  action: string;
-  subjectType: string | null;
-  subjectId: string | null;
-  user: { id: string; name: string } | null;
-  detail: Record<string, unknown>;
-}
 
 const ACTION_TEXT: Record<string, string> = {
   'scene.create': 'created scene',
@@ -63,7 +54,7 @@ const ACTION_TEXT: Record<string, string> = {
 };
 
 function ActivityList({ teamId, titles }: { teamId: string; titles: Map<string, string> }) {
-  const q = useQuery({ queryKey: ['activity', teamId], queryFn: () => apiGet<{ activity: Activity[] }>(`/api/teams/${teamId}/activity?limit=20`), refetchInterval: 30_000 });
+  const q = useActivity(teamId);
   if (q.isPending) return <p className="text-sm text-ink-300">Loading activity…</p>;
   if (q.isError) return <Alert tone="error">Activity could not be loaded: {errorText(q.error)}</Alert>;
   if (!q.data.activity.length) return <p className="text-sm text-ink-300">Nothing has happened yet.</p>;
@@ -95,8 +86,8 @@ function ActivityList({ teamId, titles }: { teamId: string; titles: Map<string, 
 
 function Table({ teamId, canCreate }: { teamId: string; canCreate: boolean }) {
   const id = useId();
-  const q = useQuery({ queryKey: ['scenes', teamId], queryFn: () => apiGet<{ scenes: SceneListRow[] }>(`/api/scenes?teamId=${encodeURIComponent(teamId)}`) });
-  const members = useQuery({ queryKey: ['members', teamId], queryFn: () => apiGet<{ members: { userId: string; name: string }[] }>(`/api/teams/${teamId}/members`) });
+  const q = useScenes(teamId);
+  const members = useMembers(teamId);
   const names = useMemo(() => new Map((members.data?.members ?? []).map((m) => [m.userId, m.name])), [members.data]);
   const [search, setSearch] = useState('');
   const [site, setSite] = useState('');

@@ -3,8 +3,8 @@
  * beside it. Editors' changes are autosaved with the version they were based on; a 409 opens the
  * conflict choice. Present opens the stage; following a presenter shows the audience's stage.
  */
+import { useMembers } from '../../lib/client/queries';
 import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
-import { useQuery } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
@@ -94,8 +94,8 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
   const [snapMsg, setSnapMsg] = useState<{ tone: 'success' | 'error'; text: string } | null>(null);
   const [focusedComment, setFocusedComment] = useState<string | null>(null);
 
-  const members = useQuery({ queryKey: ['members', scene.teamId], queryFn: () => apiGet<{ members: { userId?: string; id?: string; name: string }[] }>(`/api/teams/${scene.teamId}/members`) });
-  const memberNames = useMemo(() => new Map((members.data?.members ?? []).map((m) => [m.userId ?? m.id ?? '', m.name])), [members.data]);
+  const members = useMembers(scene.teamId);
+  const memberNames = useMemo(() => new Map((members.data?.members ?? []).map((m) => [m.userId, m.name])), [members.data]);
   const access: ReviewAccess = { kind: 'member', sceneId: scene.id, canComment, canResolve: canComment };
   const comments = useComments(access);
   const markers = useMemo(() => commentMarkers(comments.data ?? []), [comments.data]);

@@ -1,8 +1,8 @@
 /** Share links: create (viewer or reviewer, optional expiry), list with their state, copy, embed, revoke. */
+import { keys, useLinks } from '../../lib/client/queries';
 import { useId, useState } from 'react';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { apiDelete, apiGet, apiPost, errorText } from '../../lib/client/api';
-import type { LinkOut } from '../../lib/contracts/link';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { apiDelete, apiPost, errorText } from '../../lib/client/api';
 import type { LinkRole } from '../../lib/contracts/roles';
 import { inputUtcToIso, timeAgo } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
@@ -20,7 +20,7 @@ export function SharePanel({ sceneId, title }: { sceneId: string; title: string 
   const [role, setRole] = useState<LinkRole>('viewer');
   const [expires, setExpires] = useState('');
   const [fresh, setFresh] = useState<{ id: string; token: string; url: string; role: LinkRole } | null>(null);
-  const links = useQuery({ queryKey: ['links', sceneId], queryFn: () => apiGet<{ links: LinkOut[] }>(`/api/scenes/${sceneId}/links`) });
+  const links = useLinks(sceneId);
   const create = useMutation({
     mutationFn: async () => {
       const expiresAt = expires ? inputUtcToIso(expires) : null;
@@ -29,12 +29,12 @@ export function SharePanel({ sceneId, title }: { sceneId: string; title: string 
     },
     onSuccess: (r) => {
       setFresh({ ...r, role });
-      void qc.invalidateQueries({ queryKey: ['links', sceneId] });
+      void qc.invalidateQueries({ queryKey: keys.links(sceneId) });
     },
   });
   const revoke = useMutation({
     mutationFn: (linkId: string) => apiDelete(`/api/scenes/${sceneId}/links/${linkId}`),
-    onSuccess: () => qc.invalidateQueries({ queryKey: ['links', sceneId] }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: keys.links(sceneId) }),
   });
   const origin = typeof location !== 'undefined' ? location.origin : '';
   return (

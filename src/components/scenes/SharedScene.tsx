@@ -2,15 +2,13 @@
  * What a share link opens: the scene read-only with the sky filling the page, its steps in a drawer (after
  * the sky on a phone), follow the presenter (the audience's stage), and for reviewer links comments.
  */
+import { useSharedScene } from '../../lib/client/queries';
 import { useMemo, useState } from 'react';
-import { useQuery } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { ApiError, apiGet, errorText } from '../../lib/client/api';
+import { ApiError, errorText } from '../../lib/client/api';
 import type { Anchor } from '../../lib/contracts/comment';
-import type { LinkRole } from '../../lib/contracts/roles';
-import type { PublicScene } from '../../lib/contracts/scene';
 import { anchorFromPick, commentMarkers, formatInZone, sceneAtStep, toSceneLike } from '../../lib/client/scene-view';
 import { Sky, type PickedPoint } from './Sky';
 import { Section, Tabs } from './controls';
@@ -23,12 +21,7 @@ import { NightPanel } from '../night/NightPanel';
 import { chartComments, nightRevision } from '../night/mount';
 
 function Shared({ token, embed }: { token: string; embed: boolean }) {
-  const q = useQuery({
-    queryKey: ['shared', token],
-    queryFn: () => apiGet<{ scene: PublicScene; role: LinkRole }>(`/api/shared/${encodeURIComponent(token)}`),
-    retry: false,
-    refetchInterval: 60_000,
-  });
+  const q = useSharedScene(token);
   const [following, setFollowing] = useState(false);
   const [stepIdx, setStepIdx] = useState<number | null>(null);
   const [picking, setPicking] = useState(false);

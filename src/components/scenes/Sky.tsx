@@ -8,9 +8,9 @@ export type PickedPoint = { ra: number; dec: number; azimuth: number; altitude: 
 export function Sky(props: { scene: SceneLike; edit?: boolean; onChange?: (s: SceneLike) => void; comments?: CommentAnchor[]; onPick?: (p: PickedPoint) => void; onSnapshot?: (url: string) => void; chrome?: 'full' | 'stage'; onTimeChange?: (ms: number) => void }) {
   return (
     <SkyView
-      scene={props.scene as never}
+      scene={props.scene}
       mode={props.edit ? 'edit' : 'view'}
-      onSceneChange={props.onChange as never}
+      onSceneChange={props.onChange && ((patch) => props.onChange!({ ...props.scene, ...patch }))}
       comments={props.comments}
       onPickPoint={props.onPick}
       onSnapshot={props.onSnapshot}

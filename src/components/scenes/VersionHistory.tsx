@@ -1,22 +1,20 @@
 /** Every saved version with its author and time; restoring makes a new version with the old content. */
-import { useQuery, useMutation, useQueryClient } from '@tanstack/react-query';
-import { apiGet, apiPost, errorText } from '../../lib/client/api';
-import type { SceneOut, VersionOut } from '../../lib/contracts/scene';
+import { keys, useVersions } from '../../lib/client/queries';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { apiPost, errorText } from '../../lib/client/api';
+import type { SceneOut } from '../../lib/contracts/scene';
 import { timeAgo } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
 
 export function VersionHistory({ scene, canRestore, onRestored, memberNames }: { scene: SceneOut; canRestore: boolean; onRestored: (s: SceneOut) => void; memberNames: Map<string, string> }) {
   const qc = useQueryClient();
-  const q = useQuery({
-    queryKey: ['versions', scene.id, scene.version],
-    queryFn: () => apiGet<{ versions: VersionOut[]; current: number }>(`/api/scenes/${scene.id}/versions`),
-  });
+  const q = useVersions(scene.id, scene.version);
   const restore = useMutation({
     mutationFn: (n: number) => apiPost<{ scene: SceneOut }>(`/api/scenes/${scene.id}/versions/${n}/restore`, { version: scene.version }),
     onSuccess: (r) => {
       onRestored(r.scene);
-      void qc.invalidateQueries({ queryKey: ['versions', scene.id] });
+      void qc.invalidateQueries({ queryKey: keys.versions(scene.id) });
     },
   });
   if (q.isPending) return <p className="text-sm text-ink-300">Loading history…</p>;

@@ -62,10 +62,18 @@ export interface SceneLike {
   steps?: { id: string; title?: string; time: string; camera?: SceneLike['camera']; layers?: Layers; caption?: string }[];
 }
 
+/** What the view changes in edit mode: the layers, the camera (all of it) or the saved instant. */
+export interface SceneViewPatch {
+  layers?: Layers;
+  camera?: { mode: 'observer' | 'sphere'; azDeg: number; altDeg: number; fovDeg: number };
+  time?: string;
+}
+
 export interface SkyViewProps {
   scene: SceneLike;
   mode?: 'edit' | 'view';
-  onSceneChange?: (scene: SceneLike) => void;
+  /** Edit mode only: the fields the user changed in the view, to merge into the caller's scene. */
+  onSceneChange?: (patch: SceneViewPatch) => void;
   comments?: CommentAnchor[];
   onPickPoint?: (anchor: { ra: number; dec: number; azimuth: number; altitude: number }) => void;
   onSnapshot?: (dataUrl: string) => void;
@@ -224,15 +232,15 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
     return clock.subscribe(onTime);
   }, []);
 
-  const emit = (patch: Partial<SceneLike>) => {
+  const emit = (patch: SceneViewPatch) => {
     if (mode !== 'edit' || !onSceneChange) return;
-    onSceneChange({ ...scene, ...patch });
+    onSceneChange(patch);
   };
   const layersChanged = () => setTimeout(() => emit({ layers: store.get().layers }), 0);
   const setMode = (m: 'observer' | 'sphere') => {
     store.set({ mode: m });
     hud.invalidate?.();
-    emit({ camera: { ...(scene.camera ?? {}), mode: m, azDeg: cam.az, altDeg: cam.alt, fovDeg: cam.fov } });
+    emit({ camera: { mode: m, azDeg: cam.az, altDeg: cam.alt, fovDeg: cam.fov } });
   };
 
   const snapshot = async () => {

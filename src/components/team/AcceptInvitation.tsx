@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
-import { api, ApiError } from '../ui/api';
+import { apiPost, ApiError } from '../../lib/client/api';
 
 export default function AcceptInvitation({ token, teamName, role }: { token: string; teamName: string; role: string }) {
   const [busy, setBusy] = useState(false);
@@ -10,7 +10,7 @@ export default function AcceptInvitation({ token, teamName, role }: { token: str
     setBusy(true);
     setError(null);
     try {
-      const r = await api<{ team: { id: string } }>('POST', `/api/invitations/${encodeURIComponent(token)}/accept`);
+      const r = await apiPost<{ team: { id: string } }>(`/api/invitations/${encodeURIComponent(token)}/accept`);
       window.location.assign(`/dashboard?team=${encodeURIComponent(r.team.id)}`);
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'Could not reach the server; try again.');

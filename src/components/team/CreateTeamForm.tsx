@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { TextField } from '../ui/Field';
-import { api, ApiError } from '../ui/api';
+import { apiPost, ApiError } from '../../lib/client/api';
 import { zodResolver } from '../ui/zod-resolver';
 
 const schema = z.object({ name: z.string().trim().min(1, 'Name the team.').max(100, 'Use at most 100 characters.') });
@@ -15,7 +15,7 @@ export default function CreateTeamForm() {
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     try {
-      const r = await api<{ team: { id: string } }>('POST', '/api/teams', v);
+      const r = await apiPost<{ team: { id: string } }>('/api/teams', v);
       window.location.assign(`/dashboard?team=${encodeURIComponent(r.team.id)}`);
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'Could not reach the server; try again.');

@@ -1,5 +1,7 @@
 /** Members of one team; owners also see pending invitations, invite, change roles and remove members. */
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { keys, useInvitations, useMembers } from '../../lib/client/queries';
+import { ROLES, type Role } from '../../lib/contracts/roles';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
@@ -8,11 +10,9 @@ import { Badge, Card } from '../ui/Card';
 import { Button } from '../ui/Button';
 import { SelectField, TextField } from '../ui/Field';
 import { QueryRoot } from '../ui/QueryRoot';
-import { api, ApiError } from '../ui/api';
+import { apiDelete, apiPatch, apiPost, ApiError } from '../../lib/client/api';
 import { zodResolver } from '../ui/zod-resolver';
 
-const ROLES = ['owner', 'editor', 'reviewer', 'viewer'] as const;
-type Role = (typeof ROLES)[number];
 const ROLE_HELP: Record<Role, string> = {
   owner: 'manages members and everything else',
   editor: 'builds and shares scenes',
@@ -20,8 +20,6 @@ const ROLE_HELP: Record<Role, string> = {
   viewer: 'watches read-only',
 };
 
-interface Member { userId: string; email: string; name: string; role: Role; joinedAt: string }
-interface Invitation { id: string; email: string; role: Role; expiresAt: string }
 
 const inviteForm = z.object({
   email: z.string().trim().min(1, 'Enter an e-mail address.').email('Enter an e-mail address such as name@example.org.'),
@@ -41,7 +39,7 @@ function InviteForm({ teamId, onDone }: { teamId: string; onDone: (text: string)
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     try {
-      const r = await api<{ mailed: boolean }>('POST', `/api/teams/${teamId}/invitations`, v);
+      const r = await apiPost<{ mailed: boolean }>(`/api/teams/${teamId}/invitations`, v);
       reset();
       onDone(r.mailed ? `Invitation sent to ${v.email}.` : `Invitation created for ${v.email}, but the mail could not be sent.`);
     } catch (e) {
@@ -65,23 +63,19 @@ function InviteForm({ teamId, onDone }: { teamId: string; onDone: (text: string)
 function Panel({ teamId, currentUserId, canManage }: Props) {
   const qc = useQueryClient();
   const [note, setNote] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
-  const members = useQuery({ queryKey: ['members', teamId], queryFn: () => api<{ members: Member[] }>('GET', `/api/teams/${teamId}/members`) });
-  const invitations = useQuery({
-    queryKey: ['invitations', teamId],
-    queryFn: () => api<{ invitations: Invitation[] }>('GET', `/api/teams/${teamId}/invitations`),
-    enabled: canManage,
-  });
+  const members = useMembers(teamId);
+  const invitations = useInvitations(teamId, canManage);
   const refresh = () => {
-    void qc.invalidateQueries({ queryKey: ['members', teamId] });
-    void qc.invalidateQueries({ queryKey: ['invitations', teamId] });
+    void qc.invalidateQueries({ queryKey: keys.members(teamId) });
+    void qc.invalidateQueries({ queryKey: keys.invitations(teamId) });
   };
   const change = useMutation({
-    mutationFn: ({ userId, role }: { userId: string; role: Role }) => api('PATCH', `/api/teams/${teamId}/members/${userId}`, { role }),
+    mutationFn: ({ userId, role }: { userId: string; role: Role }) => apiPatch(`/api/teams/${teamId}/members/${userId}`, { role }),
     onSuccess: () => { setNote({ tone: 'success', text: 'Role changed.' }); refresh(); },
     onError: (e) => { setNote({ tone: 'error', text: message(e) }); refresh(); },
   });
   const remove = useMutation({
-    mutationFn: (userId: string) => api('DELETE', `/api/teams/${teamId}/members/${userId}`),
+    mutationFn: (userId: string) => apiDelete(`/api/teams/${teamId}/members/${userId}`),
     onSuccess: (_d, userId) => {
       if (userId === currentUserId) window.location.assign('/dashboard');
       else { setNote({ tone: 'success', text: 'Member removed.' }); refresh(); }
@@ -89,7 +83,7 @@ function Panel({ teamId, currentUserId, canManage }: Props) {
     onError: (e) => setNote({ tone: 'error', text: message(e) }),
   });
   const revoke = useMutation({
-    mutationFn: (id: string) => api('DELETE', `/api/teams/${teamId}/invitations/${id}`),
+    mutationFn: (id: string) => apiDelete(`/api/teams/${teamId}/invitations/${id}`),
     onSuccess: () => { setNote({ tone: 'success', text: 'Invitation withdrawn.' }); refresh(); },
     onError: (e) => setNote({ tone: 'error', text: message(e) }),
   });

@@ -66,3 +66,8 @@ export function errorText(e: unknown): string {
   if (e instanceof Error) return e.message;
   return String(e);
 }
+
+/** Only same-site paths are followed after sign-in (no open redirect). */
+export function safeNext(next: string | null | undefined, fallback = '/dashboard'): string {
+  return next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : fallback;
+}

@@ -1,18 +1,42 @@
 /** Teams, members and the signed-in user's summary, as the API returns them. */
 import type { Role } from './roles';
 
+export interface TeamSummary {
+  id: string;
+  name: string;
+  role: Role;
+}
+
+/** One member of a team (GET /api/teams/:teamId/members). */
+export interface MemberOut {
+  userId: string;
+  email: string;
+  name: string;
+  role: Role;
+  joinedAt: string;
+}
+
+/** An invitation not yet accepted (GET /api/teams/:teamId/invitations, owners only). */
+export interface PendingInvitation {
+  id: string;
+  email: string;
+  role: Role;
+  createdAt: string;
+  expiresAt: string;
+}
+
 export interface Me {
   user: { id: string; email: string; name: string };
   teams: { id: string; name: string; role: Role }[];
 }
 
+/** One entry of a team's activity (GET /api/teams/:teamId/activity), newest first. */
 export interface ActivityOut {
   id: string | number;
+  at: string;
   action: string;
-  subjectType?: string | null;
-  subjectId?: string | null;
-  userName?: string | null;
-  userId?: string | null;
-  detail?: Record<string, unknown> | null;
-  createdAt: string;
+  subjectType: string | null;
+  subjectId: string | null;
+  user: { id: string; name: string } | null;
+  detail: Record<string, unknown>;
 }

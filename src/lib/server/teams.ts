@@ -7,6 +7,9 @@ import { nanoid } from 'nanoid';
 import { z } from 'zod';
 import type { User } from 'lucia';
 import { audit } from './audit';
+import type { MemberOut as Member, PendingInvitation, TeamSummary } from '../contracts/team';
+
+export type { Member, PendingInvitation, TeamSummary };
 import type { DbOrTx } from './db/client';
 import { invitations, memberships, ROLES, teams, users, type Role } from './db/schema';
 import { HttpError, notFound } from './http';
@@ -14,20 +17,6 @@ import { authorize } from './policy';
 import { linkOrigin, sendMail } from './mail';
 import { invitationMail } from './mail/templates';
 import { hashToken, newToken } from './auth/secret-token';
-
-export interface TeamSummary {
-  id: string;
-  name: string;
-  role: Role;
-}
-
-export interface Member {
-  userId: string;
-  email: string;
-  name: string;
-  role: Role;
-  joinedAt: string;
-}
 
 export const roleField = z.enum(ROLES, { errorMap: () => ({ message: `must be one of ${ROLES.join(', ')}` }) });
 export const teamInput = z.object({ name: z.string({ required_error: 'is required' }).trim().min(1, 'is required').max(100, 'must be at most 100 characters') });
@@ -123,14 +112,6 @@ export async function removeMember(db: DbOrTx, actor: User, teamId: string, user
       detail: { role: m.role },
     });
   });
-}
-
-export interface PendingInvitation {
-  id: string;
-  email: string;
-  role: Role;
-  createdAt: string;
-  expiresAt: string;
 }
 
 export async function listInvitations(db: DbOrTx, actor: User, teamId: string): Promise<PendingInvitation[]> {
