@@ -29,7 +29,11 @@ const fmtCoord = (v: number, pos: string, neg: string) => `${Math.abs(v).toFixed
 
 export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { value: Site; onApply: (s: Site) => void; submitLabel?: string }) {
   const id = useId();
-  const [f, setF] = useState({ name: value.name, lat: String(value.lat), lon: String(value.lon), height: String(value.height ?? 0), timeZone: value.timeZone ?? 'UTC' });
+  const eo = value.earthOrientation;
+  const [f, setF] = useState({
+    name: value.name, lat: String(value.lat), lon: String(value.lon), height: String(value.height ?? 0), timeZone: value.timeZone ?? 'UTC',
+    dut1: eo ? String(eo.dut1) : '', xp: eo ? String(eo.xp) : '', yp: eo ? String(eo.yp) : '', eoDate: eo?.date ?? '', eoSource: eo?.source ?? '',
+  });
   const [zone, setZone] = useState<ZoneState>({ mode: 'derived', status: 'idle' });
   const [heightNote, setHeightNote] = useState<string>(value.name ? 'As saved with the site.' : 'Type the height of the site above sea level.');
   const [from, setFrom] = useState<string | null>(null);
@@ -108,7 +112,15 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
   };
 
   const apply = () => {
-    const bad = (['lat', 'lon', 'height'] as const).find((k) => f[k].trim() !== '' && !Number.isFinite(Number(f[k])));
+    // Earth orientation: all five empty → none; otherwise all are checked by the schema.
+    const eoGiven = [f.dut1, f.xp, f.yp, f.eoDate, f.eoSource].some((x) => x.trim() !== '');
+    const earthOrientation = eoGiven
+      ? { dut1: f.dut1.trim() === '' ? NaN : Number(f.dut1), xp: f.xp.trim() === '' ? NaN : Number(f.xp), yp: f.yp.trim() === '' ? NaN : Number(f.yp), date: f.eoDate.trim(), source: f.eoSource.trim() }
+      : undefined;
+    const notNumber = (v: string) => !Number.isFinite(Number(v));
+    const bad =
+      (['lat', 'lon', 'height'] as const).find((k) => f[k].trim() !== '' && notNumber(f[k])) ??
+      (eoGiven ? (['dut1', 'xp', 'yp'] as const).find((k) => f[k].trim() === '' || notNumber(f[k])) : undefined);
     if (bad) return setErr({ field: bad, message: `${bad}: must be a number` });
     const lat = Number(f.lat || 0);
     const lon = Number(f.lon || 0);
@@ -119,17 +131,18 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
       reasons.push(`The site has no name; it will be called “${name}”.`);
     }
     if (lat === 0 && lon === 0) reasons.push('The site is at exactly 0°, 0° — in the Gulf of Guinea, at sea — which is usually a site not yet filled in.');
-    const r = siteSchema.safeParse({ name, lat, lon, height: Number(f.height || 0), timeZone: f.timeZone });
+    const r = siteSchema.safeParse({ name, lat, lon, height: Number(f.height || 0), timeZone: f.timeZone, earthOrientation });
     if (!r.success) {
       const i = r.error.issues[0]!;
-      return setErr({ field: String(i.path[0]), message: `${String(i.path[0])}: ${i.message}` });
+      const k = i.path[0] === 'earthOrientation' ? (({ date: 'eoDate', source: 'eoSource' }) as Record<string, string>)[String(i.path[1])] ?? String(i.path[1]) : String(i.path[0]);
+      return setErr({ field: k, message: `${i.path.join('.')}: ${i.message}` });
     }
     setErr(null);
     if (reasons.length) return setConfirm({ reasons, site: r.data });
     onApply(r.data);
   };
 
-  const field = (k: 'name' | 'lat' | 'lon' | 'height', label: string, hint?: string) => (
+  const field = (k: keyof typeof f, label: string, hint?: string) => (
     <div className="flex flex-col gap-1">
       <label htmlFor={`${id}-${k}`} className={LABEL}>
         {label}
@@ -139,7 +152,7 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
         name={k}
         className={INPUT}
         value={f[k]}
-        inputMode={k === 'name' ? undefined : 'decimal'}
+        inputMode={k === 'name' || k === 'eoDate' || k === 'eoSource' ? undefined : 'decimal'}
         aria-invalid={err?.field === k || undefined}
         aria-describedby={k === 'height' ? `${id}-height-note` : undefined}
         placeholder={hint}
@@ -213,6 +226,19 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
           )}
         </p>
       </div>
+      <details className="text-xs" open={!!eo}>
+        <summary className={LABEL}>Earth orientation for pointing (optional)</summary>
+        <p className="mt-1 text-ink-300">UT1 − UTC and polar motion from IERS Bulletin A for the night observed; left empty they are taken as 0 (up to ~13″ of hour angle).</p>
+        <div className="mt-1 grid grid-cols-3 gap-2">
+          {field('dut1', 'UT1 − UTC (s)', '-0.0412')}
+          {field('xp', 'Polar motion xp (″)', '0.1523')}
+          {field('yp', 'Polar motion yp (″)', '0.3741')}
+        </div>
+        <div className="mt-1 grid grid-cols-2 gap-2">
+          {field('eoDate', 'For the date', '2026-12-03')}
+          {field('eoSource', 'Source', 'IERS Bulletin A')}
+        </div>
+      </details>
       {err && (
         <p role="alert" className="text-xs text-danger-300">
           {err.message}

@@ -48,7 +48,10 @@ class DrawingGuard extends Component<{ children: ReactNode }, { failed: boolean 
 
 export interface SceneLike {
   title: string;
-  site: { name: string; lat: number; lon: number; height?: number; timeZone?: string };
+  site: {
+    name: string; lat: number; lon: number; height?: number; timeZone?: string;
+    earthOrientation?: { dut1: number; xp: number; yp: number; date: string; source: string };
+  };
   /** ISO 8601 UTC. */
   time: string;
   layers?: Layers;
@@ -77,7 +80,11 @@ const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text
 const SUN_UP_ALT = -50 / 60; // upper limb on the horizon (USNO)
 
 function siteInput(s: SceneLike['site']): engine.SiteInput {
-  return { latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0 };
+  const e = s.earthOrientation;
+  return {
+    latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0,
+    ...(e ? { dut1Sec: e.dut1, xpArcsec: e.xp, ypArcsec: e.yp, eopDate: e.date, eopSource: e.source } : {}),
+  };
 }
 
 export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, chrome = 'full', onTimeChange }: SkyViewProps) {
@@ -120,7 +127,7 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
   useEffect(() => {
     model.setSite(siteInput(scene.site));
     hud.invalidate?.();
-  }, [scene.site.lat, scene.site.lon, scene.site.height]);
+  }, [scene.site.lat, scene.site.lon, scene.site.height, scene.site.earthOrientation?.dut1, scene.site.earthOrientation?.xp, scene.site.earthOrientation?.yp]);
   useEffect(() => {
     const ms = Date.parse(scene.time);
     if (Number.isFinite(ms)) clock.setMs(ms);
