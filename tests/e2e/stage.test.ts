@@ -135,6 +135,14 @@ browserTest('the presenter is a stage at four screen sizes: fits, nothing over t
       await ed.page.mouse.move(200, 200);
       await ed.page.mouse.move(220, 210);
       await expect.poll(() => stage.getByTestId('stage-controls').getAttribute('data-idle'), { timeout: 5_000 }).toBe('false');
+      // Red night mode is one key away on the stage too, reaches the stage (even full screen) and is remembered.
+      await ed.page.keyboard.press('r');
+      expect(await ed.page.evaluate(() => document.documentElement.dataset.night)).toBe('red');
+      expect(await stage.evaluate((el) => (document.fullscreenElement === el ? getComputedStyle(el).filter : getComputedStyle(document.documentElement).filter))).toContain('armilla-red');
+      expect(await ed.page.evaluate(() => localStorage.getItem('armilla.ui.nightRed'))).toBe('1');
+      await screenshot(ed.page, `stage-presenter-red-${label}`);
+      await stage.getByTestId('night-mode-toggle').click();
+      expect(await ed.page.evaluate(() => document.documentElement.dataset.night ?? null)).toBeNull();
     }
     await screenshot(ed.page, `stage-presenter-${label}`);
     await ed.page.keyboard.press('Escape');
