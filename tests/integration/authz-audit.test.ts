@@ -297,6 +297,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/scenes/[id]/targets.vot': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/windows.csv': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/night': { expect: team('viewer', 200) },
+  'GET /api/scenes/[id]/night.svg': { expect: team('viewer', 200) },
 
   // share links: the token is the credential, whoever holds it (account or not) gets the link's role
   'GET /api/shared/[token]': { expect: ALL(200) },
@@ -315,6 +316,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/shared/[token]/export.vot': { expect: ALL(200) },
   'GET /api/shared/[token]/export-windows.csv': { expect: ALL(200) },
   'GET /api/shared/[token]/night': { expect: ALL(200) },
+  'GET /api/shared/[token]/night.svg': { expect: ALL(200) },
 
   // calendars: the scene's night for members and link holders; the team's secret subscription URL (editor+)
   'GET /api/scenes/[id]/calendar.ics': { expect: team('viewer', 200) },

@@ -68,6 +68,8 @@ export interface SkyViewProps {
   onSnapshot?: (dataUrl: string) => void;
   /** `full`: the sky with its panels and time bar (default); `stage`: the sky alone (presenter, audience). */
   chrome?: 'full' | 'stage';
+  /** The view's instant as it moves (time bar, playing, steps), at most five times a second: keeps the night chart's cursor in step. */
+  onTimeChange?: (ms: number) => void;
 }
 
 const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text-slate-100 hover:bg-slate-700 focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400';
@@ -78,7 +80,7 @@ function siteInput(s: SceneLike['site']): engine.SiteInput {
   return { latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0 };
 }
 
-export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, chrome = 'full' }: SkyViewProps) {
+export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, chrome = 'full', onTimeChange }: SkyViewProps) {
   const timeZone = scene.site.timeZone ?? 'UTC';
   const handles = useMemo<ViewHandles>(() => {
     const ms = Date.parse(scene.time);
@@ -145,6 +147,23 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
     store.set({ pins: scene.pins ?? [] });
     hud.invalidate?.();
   }, [scene.envelope, scene.targets, scene.pins]);
+  const timeListener = useRef(onTimeChange);
+  timeListener.current = onTimeChange;
+  useEffect(() => {
+    // at most five times a second, and once more after the last change
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    const off = clock.subscribe(() => {
+      if (timer || !timeListener.current) return;
+      timer = setTimeout(() => {
+        timer = null;
+        timeListener.current?.(clock.ms);
+      }, 200);
+    });
+    return () => {
+      off();
+      if (timer) clearTimeout(timer);
+    };
+  }, []);
   useEffect(() => {
     store.set({ comments: comments ?? [] });
     hud.invalidate?.();
