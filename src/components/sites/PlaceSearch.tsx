@@ -4,7 +4,7 @@
  */
 import { useEffect, useId, useRef, useState } from 'react';
 import { GEONAMES_CREDIT, type Place } from '../../lib/contracts/places';
-import { INPUT, LABEL } from '../scenes/bits';
+import { INPUT, LABEL } from '../scenes/controls';
 
 const DEBOUNCE_MS = 120;
 

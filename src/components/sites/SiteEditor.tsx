@@ -5,10 +5,10 @@
  * the value came from. A site at exactly 0°, 0° or without a name asks for confirmation first.
  */
 import { useEffect, useId, useMemo, useRef, useState } from 'react';
-import { siteSchema, type Site } from '../../lib/scenes/scene';
+import { siteSchema, type Site } from '../../lib/contracts/scene-doc';
 import type { Place } from '../../lib/contracts/places';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from '../scenes/bits';
+import { INPUT, LABEL } from '../scenes/controls';
 import { PlaceSearch, placeLabel } from './PlaceSearch';
 
 let zonesCache: string[] | null = null;

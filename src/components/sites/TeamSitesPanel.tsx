@@ -2,7 +2,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { apiDelete, apiGet, apiPost, errorText } from '../../lib/client/api';
-import type { SiteOut } from '../../lib/client/types';
+import type { SiteOut } from '../../lib/contracts/site';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { Card } from '../ui/Card';
