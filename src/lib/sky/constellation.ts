@@ -9,7 +9,7 @@
  * sees the mean B1875 place. Check: points 5″ and 30″ from edges, precessed with ERFA pmat76
  * (constellation.test.ts).
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 import { BIAS, precessionMatrix } from './frames';
 import { RAD, mat3, mul, mulVec, mulVecT, unitFromLonLat } from './math';
 

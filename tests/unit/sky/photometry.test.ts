@@ -17,7 +17,7 @@ import earthData from 'astronomia/data/vsop87Bearth';
 import marsData from 'astronomia/data/vsop87Bmars';
 import jupiterData from 'astronomia/data/vsop87Bjupiter';
 import { bodies } from '../../../src/lib/sky/bodies';
-import { instantFromDate } from '../../../src/lib/sky/time';
+import { instantFromDate } from '../../../src/lib/sky/timescales';
 
 const SITE = { latDeg: 51.4769, lonDeg: 0, heightM: 0 };
 const DATES = ['2024-01-20T20:00:00Z', '2025-05-05T03:00:00Z', '2026-12-03T22:00:00Z', '2027-08-14T01:30:00Z', '2029-02-27T12:00:00Z'];
