@@ -51,7 +51,9 @@ export function listener(req, res) {
     stream.pipe(res);
     return;
   }
-  handler(req, res);
+  // The socket's address goes to Astro as a local, where no header can forge it: Astro's own
+  // clientAddress believes the first X-Forwarded-For value (src/lib/server/proxy.ts decides whom to believe).
+  handler(req, res, undefined, { peerAddress: req.socket.remoteAddress ?? '', peerEncrypted: Boolean(req.socket.encrypted) });
 }
 
 const host = process.env.HOST ?? '127.0.0.1';

@@ -221,6 +221,7 @@ const TABLE: Record<string, Entry> = {
   'POST /api/auth/password-reset/confirm': { expect: ALL(400), req: () => ({ json: { token: 'x'.repeat(43), password: 'audit-password-2' } }) },
   // wrong current password: nothing changes, but only a signed-in caller gets that far
   'POST /api/auth/password': { expect: signedIn(400), req: () => ({ json: { currentPassword: 'not-the-password', newPassword: 'audit-password-2' } }) },
+  'POST /api/auth/verify-email': { expect: signedIn(409) },
   'GET /api/me': { expect: signedIn(200) },
   'PATCH /api/me': { expect: signedIn(200), req: ({ caller }) => ({ json: { name: `Audit ${caller}` } }) },
 

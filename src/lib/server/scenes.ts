@@ -4,6 +4,7 @@
  */
 import { z, type AnyZodObject, type ZodTypeAny } from 'zod';
 import { isPng } from '../png';
+import { checkPng } from '../exports/png-check';
 import { boundedArray } from '../bounded-array';
 import {
   cameraSchema,
@@ -50,14 +51,21 @@ export function knownKeysOnly<T extends ZodTypeAny>(shapeOf: AnyZodObject, schem
 
 /** Ids inside a list (targets, pins, steps) must be unique: steps, comments and pins point at them. */
 function uniqueIds<T extends { id: string }>(item: z.ZodType<T, z.ZodTypeDef, unknown>, max: number) {
-  return boundedArray(item, max)
-    .superRefine((list, ctx) => {
-      const seen = new Set<string>();
-      list.forEach((x, i) => {
-        if (seen.has(x.id)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: [i, 'id'], message: `duplicate id "${x.id}"` });
-        seen.add(x.id);
-      });
-    });
+  return boundedArray(item, max).superRefine((list, ctx) => {
+    // zod runs this refinement even when the list was refused (too long, not a list): look only at a
+    // list that passed, and stop at the first duplicate.
+    if (!Array.isArray(list) || list.length > max) return;
+    const seen = new Set<string>();
+    for (let i = 0; i < list.length; i++) {
+      const id = (list[i] as { id?: unknown } | null)?.id;
+      if (typeof id !== 'string') continue;
+      if (seen.has(id)) {
+        ctx.addIssue({ code: z.ZodIssueCode.custom, path: [i, 'id'], message: `duplicate id "${id}"` });
+        return;
+      }
+      seen.add(id);
+    }
+  });
 }
 
 export const MAX_TARGETS = 5000;
@@ -142,6 +150,12 @@ export const thumbnailSchema = z
     const bytes = m ? Buffer.from(m[1], 'base64') : null;
     if (!bytes || bytes.length > MAX_THUMBNAIL_BYTES || !isPng(bytes)) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'must be a PNG data URL (data:image/png;base64,…) of at most 512 KiB' });
+      return z.NEVER;
+    }
+    // Bounded in declared and decoded size (at most 512 KiB in, 16 MB inflated with a cap: milliseconds).
+    const check = checkPng(bytes);
+    if (!check.ok) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: check.message });
       return z.NEVER;
     }
     return bytes;
