@@ -5,6 +5,7 @@ import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
 import { copyFileSync, existsSync, renameSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { precompressDir } from './scripts/precompress.mjs';
 import { computeWorker } from './src/lib/server/compute/build.mjs';
 
 /**
@@ -28,6 +29,10 @@ function armillaServer() {
         if (!existsSync(entry)) throw new Error(`armilla-server: no ${entry}`);
         renameSync(entry, app);
         copyFileSync(fileURLToPath(new URL('./scripts/server-entry.mjs', import.meta.url)), entry);
+        const made = precompressDir(fileURLToPath(new URL('client/', outDir)));
+        /** @param {'raw' | 'br' | 'gz'} k */
+        const sum = (k) => made.reduce((a, f) => a + f[k], 0);
+        console.log(`armilla-server: precompressed ${made.length} files, ${sum('raw')} B → br ${sum('br')} B, gzip ${sum('gz')} B`);
       },
     },
   };

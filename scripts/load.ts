@@ -33,6 +33,7 @@ const READ_CONNECTIONS = 50;
 const EDITORS = 20;
 /** A save without an answer after this long counts as an error (keeps the phase bounded in time). */
 const REQUEST_TIMEOUT_MS = 10_000;
+const ACCEPT_ENCODING = process.env.LOAD_ACCEPT_ENCODING ?? 'gzip, deflate, br';
 const GOALS = { errors: 0, sharedToStaticRatio: 0.5, p99Ms: 100 } as const;
 
 export interface PhaseResult {
@@ -167,10 +168,12 @@ export async function runLoad(): Promise<Record<string, unknown>> {
     const check = await new ApiClient(server.url).get(sharedPath);
     if (check.status !== 200) throw new Error(`GET ${sharedPath} → ${check.status}`);
 
+    // Both read phases ask as a browser does (Accept-Encoding: br, gzip): the static asset goes out in its
+    // brotli form made at build time, the shared scene in the brotli form kept beside its cached answer.
     const cannon = (path: string) =>
-      autocannon({ url: server.url + path, connections: READ_CONNECTIONS, duration: SECONDS, timeout: 10 });
+      autocannon({ url: server.url + path, connections: READ_CONNECTIONS, duration: SECONDS, timeout: 10, headers: { 'accept-encoding': ACCEPT_ENCODING } });
     // warm-up (JIT, SQLite page cache), not recorded
-    await autocannon({ url: server.url + sharedPath, connections: 10, duration: 1 });
+    await autocannon({ url: server.url + sharedPath, connections: 10, duration: 1, headers: { 'accept-encoding': ACCEPT_ENCODING } });
     const staticRes = fromCannon(`GET ${staticPath} (static asset)`, READ_CONNECTIONS, await cannon(staticPath));
     const sharedRes = fromCannon('GET /api/shared/:token (viewer link)', READ_CONNECTIONS, await cannon(sharedPath));
     const editorsRes = await editorsPhase(server.url, SECONDS);

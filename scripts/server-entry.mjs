@@ -11,8 +11,11 @@
  */
 import http from 'node:http';
 import { readdirSync } from 'node:fs';
-import { join } from 'node:path';
+import { extname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import compression from 'compression';
+import { contentType } from 'mime-types';
+import Negotiator from 'negotiator';
 import send from 'send';
 import { handler } from './app.mjs';
 
@@ -29,6 +32,31 @@ function listFiles(dir, prefix, out) {
 }
 const files = listFiles(clientDir, '/', new Set());
 
+/**
+ * Compressed variants made at build time (scripts/precompress.mjs): path → the encodings on disk, best
+ * first. The variant is chosen by Accept-Encoding (q-values honoured; br preferred over gzip) and the
+ * answer carries `Vary: Accept-Encoding`, so a cache keeps each form apart.
+ */
+const variants = new Map();
+for (const f of files) {
+  const enc = [];
+  if (files.has(`${f}.br`)) enc.push('br');
+  if (files.has(`${f}.gz`)) enc.push('gzip');
+  if (enc.length) variants.set(f, enc);
+}
+const SUFFIX = { br: '.br', gzip: '.gz' };
+
+/**
+ * Everything else (pages, API answers) of at least 1 kB is compressed per request when its type is
+ * HTML or JSON (brotli quality 4, gzip level 6: compression's defaults, cheap enough per request).
+ * Answers that arrive already encoded — the shared-scene read keeps its compressed forms cached beside
+ * the answer (src/lib/server/compressed.ts) — and event streams pass through untouched.
+ */
+const compress = compression({
+  threshold: 1024,
+  filter: (_req, res) => /^(application\/json|text\/html)\b/.test(String(res.getHeader('Content-Type') ?? '')),
+});
+
 export function listener(req, res) {
   let path;
   try {
@@ -39,7 +67,18 @@ export function listener(req, res) {
     return;
   }
   if ((req.method === 'GET' || req.method === 'HEAD') && files.has(path)) {
-    const stream = send(req, path, { root: clientDir, dotfiles: 'deny' });
+    const available = variants.get(path);
+    let file = path;
+    if (available) {
+      res.setHeader('Vary', 'Accept-Encoding');
+      const enc = new Negotiator(req).encoding([...available, 'identity'], { preferred: available });
+      if (enc && enc !== 'identity') {
+        file = path + SUFFIX[enc];
+        res.setHeader('Content-Encoding', enc);
+        res.setHeader('Content-Type', contentType(extname(path)) || 'application/octet-stream');
+      }
+    }
+    const stream = send(req, file, { root: clientDir, dotfiles: 'deny' });
     stream.on('headers', (r) => {
       r.setHeader('X-Content-Type-Options', 'nosniff');
       if (path.startsWith('/_astro/')) r.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
@@ -53,7 +92,8 @@ export function listener(req, res) {
   }
   // The socket's address goes to Astro as a local, where no header can forge it: Astro's own
   // clientAddress believes the first X-Forwarded-For value (src/lib/server/proxy.ts decides whom to believe).
-  handler(req, res, undefined, { peerAddress: req.socket.remoteAddress ?? '', peerEncrypted: Boolean(req.socket.encrypted) });
+  const locals = { peerAddress: req.socket.remoteAddress ?? '', peerEncrypted: Boolean(req.socket.encrypted) };
+  compress(req, res, () => handler(req, res, undefined, locals));
 }
 
 const host = process.env.HOST ?? '127.0.0.1';

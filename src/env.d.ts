@@ -8,5 +8,7 @@ declare namespace App {
     peerAddress?: string;
     /** Whether the peer connected over TLS (our server does not terminate TLS: normally false). */
     peerEncrypted?: boolean;
+    /** Set when the request authenticated with a personal API token (`Authorization: Bearer …`). */
+    token: { id: string; scope: 'read' | 'write' } | null;
   }
 }

@@ -2,7 +2,8 @@ import { createHash } from 'node:crypto';
 import type { APIContext } from 'astro';
 import { defineMiddleware } from 'astro:middleware';
 import { readSession } from './lib/server/auth';
-import { errorResponse, HttpError } from './lib/server/http';
+import { authenticateBearer, bearerOf, scopeAllows, sessionOnly } from './lib/server/auth/tokens';
+import { clientAddress, errorResponse, HttpError } from './lib/server/http';
 import { resolveOriginParts, trustFromEnv } from './lib/server/proxy';
 
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
@@ -120,7 +121,39 @@ async function withSecurityHeaders(ctx: APIContext, response: Response): Promise
  * (→ locals.user / locals.session). One middleware rather than a sequence of three: each step of an
  * Astro sequence costs a context and a `next` of its own on every request.
  */
+/**
+ * A request to the API with `Authorization: Bearer …` acts as the token's owner (auth/tokens.ts). No cookie
+ * is read and no origin check is needed: a browser never attaches that header to a cross-site request on
+ * its own. Returns the refusal, or null once locals are set.
+ */
+async function tokenRequest(ctx: APIContext, bearer: string): Promise<Response | null> {
+  try {
+    const { pathname } = ctx.url;
+    const auth = await authenticateBearer(bearer, clientAddress(ctx));
+    if (sessionOnly(pathname)) {
+      throw new HttpError(403, 'session_required', 'Tokens and passwords are managed from a signed-in browser session, not with a token.');
+    }
+    if (!scopeAllows(auth.token.scope, ctx.request.method, pathname)) {
+      throw new HttpError(403, 'insufficient_scope', 'This token is read-only.', undefined, undefined, {
+        'www-authenticate': 'Bearer error="insufficient_scope"',
+      });
+    }
+    ctx.locals.user = auth.user;
+    ctx.locals.session = null;
+    ctx.locals.token = auth.token;
+    return null;
+  } catch (e) {
+    return errorResponse(e);
+  }
+}
+
 export const onRequest = defineMiddleware(async (ctx, next) => {
+  const bearer = ctx.url.pathname.startsWith('/api/') ? bearerOf(ctx.request) : null;
+  if (bearer !== null) {
+    const refused = await tokenRequest(ctx, bearer);
+    return withSecurityHeaders(ctx, refused ?? (await next()));
+  }
+  ctx.locals.token = null;
   const refusal = crossOriginRefusal(ctx);
   if (refusal) return withSecurityHeaders(ctx, refusal);
   const { user, session } = await readSession(ctx.cookies);

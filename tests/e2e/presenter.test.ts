@@ -40,8 +40,9 @@ browserTest('an editor presents the briefing; a viewer link follows step by step
   await editor.page.keyboard.press('ArrowRight');
   await expect.poll(() => presenter.getByText('Step 2 of 5').count(), { timeout: 10_000 }).toBe(1);
   await expect.poll(() => guest.page.getByText('Tilted by our latitude').count(), { timeout: 20_000 }).toBeGreaterThan(0);
-  // Step 2 is told from outside the sphere (seeded camera mode 'sphere'): the follower's view switches too.
-  await expect.poll(() => guest.page.getByTestId('mode-sphere').getAttribute('aria-checked'), { timeout: 10_000 }).toBe('true');
+  // Step 2 is told from outside the sphere (seeded camera mode 'sphere'): the follower's stage switches too.
+  const followerSky = guest.page.getByTestId('audience-stage').getByTestId('sky-view');
+  await expect.poll(() => followerSky.getAttribute('data-mode'), { timeout: 10_000 }).toBe('sphere');
   await screenshot(editor.page, 'presenter-editor');
   await screenshot(guest.page, 'presenter-follower');
 

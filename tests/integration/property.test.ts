@@ -49,6 +49,7 @@ const NO_BODY: Record<string, string> = {
   'POST /api/auth/sign-out': 'reads no body (ends the session)',
   'POST /api/invitations/[token]/accept': 'reads no body (the token is in the path)',
   'POST /api/shared/[token]/links': 'reads no body (always 403 or 404)',
+  'POST /api/teams/[teamId]/calendar-feed': 'reads no body (makes a new secret URL)',
 };
 
 let guestToken = '';
@@ -60,6 +61,7 @@ const TARGETS: Record<string, Target> = {
   'POST /api/auth/password': { as: 'editor', path: () => '/api/auth/password', valid: () => ({ currentPassword: 'not-the-password', newPassword: 'fuzz-password-2' }) },
   'PATCH /api/me': { as: 'editor', path: () => '/api/me', valid: () => ({ name: 'Tomas Reyland' }) },
   'POST /api/teams': { as: 'editor', path: () => '/api/teams', valid: () => ({ name: 'Fuzz team' }) },
+  'POST /api/tokens': { as: 'owner', path: () => '/api/tokens', valid: () => ({ name: 'Fuzz token', scope: 'read' }) },
   'POST /api/teams/[teamId]/invitations': { as: 'owner', path: () => `/api/teams/${fx.teamId}/invitations`, valid: () => ({ email: 'fuzz@elsewhere.example', role: 'viewer' }) },
   'PATCH /api/teams/[teamId]/members/[userId]': { as: 'owner', path: () => `/api/teams/${fx.teamId}/members/${cast.userIds.viewer}`, valid: () => ({ role: 'viewer' }) },
   'POST /api/teams/[teamId]/sites': {

@@ -1,14 +1,15 @@
 /**
- * Presenter mode: full screen (Fullscreen API), → / PageDown / Space next, ← / PageUp previous, Esc leaves.
- * Each move is POSTed so followers see it; the sky eases from one step's time to the next.
- * Follow mode: the view follows the presenter's server-sent events.
+ * Presenter mode: the stage (see ../stage/Stage.tsx) full screen (Fullscreen API), → / PageDown / Space
+ * next, ← / PageUp previous, Esc leaves. Each move is POSTed so followers see it; the sky's time eases
+ * from one step to the next and the camera turns. Follow mode: the audience's stage follows the
+ * presenter's server-sent events.
  */
 import { useCallback, useEffect, useRef, useState, type ReactNode } from 'react';
 import type { PresenterOut } from '../../lib/client/types';
 import { apiPost } from '../../lib/client/api';
-import { sceneAtStep, formatInZone, type SceneLike } from '../../lib/client/scene-view';
-import { Button } from '../ui/Button';
-import { Markdown } from './Markdown';
+import { sceneAtStep, type SceneLike } from '../../lib/client/scene-view';
+import { Stage, STAGE_BUTTON } from '../stage/Stage';
+import { NightModeButton } from '../ui/NightMode';
 
 /** Eases an ISO time toward `target` over `ms` (a few updates, not per frame). */
 export function useEasedTime(target: string, ms = 1200): string {
@@ -58,7 +59,6 @@ export function Presenter({ scene, startIndex, onClose, broadcastUrl, renderSky 
   const [broadcastError, setBroadcastError] = useState<string | null>(null);
   const step = scene.steps[index];
   const shownTime = useEasedTime(step?.time ?? scene.time);
-  const now = useClock();
   const go = useCallback((d: number) => setIndex((i) => Math.max(0, Math.min(scene.steps.length - 1, i + d))), [scene.steps.length]);
 
   useEffect(() => {
@@ -84,16 +84,19 @@ export function Presenter({ scene, startIndex, onClose, broadcastUrl, renderSky 
   }, [index, broadcastUrl]);
 
   return (
-    <div
-      ref={box}
-      tabIndex={-1}
-      role="dialog"
-      aria-modal="true"
-      aria-label="Presenter"
-      data-testid="presenter"
-      className="fixed inset-0 z-50 flex flex-col bg-ink-950 text-ink-100 outline-none"
+    <Stage
+      boxRef={box}
+      label="Presenter"
+      testId="presenter"
+      sky={renderSky(sceneAtStep(scene, step, shownTime))}
+      step={step}
+      index={index}
+      count={scene.steps.length}
+      time={shownTime}
+      timeZone={scene.site.timeZone ?? 'UTC'}
+      status={broadcastError ? <p className="text-xs text-danger-300">Followers not updated: {broadcastError}</p> : null}
       onKeyDown={(e) => {
-        if (e.key === 'ArrowRight' || e.key === 'PageDown' || e.key === ' ') {
+        if (e.key === 'ArrowRight' || e.key === 'PageDown' || (e.key === ' ' && !(e.target instanceof HTMLButtonElement))) {
           e.preventDefault();
           go(1);
         } else if (e.key === 'ArrowLeft' || e.key === 'PageUp') {
@@ -104,37 +107,65 @@ export function Presenter({ scene, startIndex, onClose, broadcastUrl, renderSky 
           onClose();
         }
       }}
-    >
-      <style>{'@keyframes armilla-fadein{from{opacity:0;transform:translateY(6px)}to{opacity:1;transform:none}}'}</style>
-      <div className="relative min-h-0 flex-1">{renderSky(sceneAtStep(scene, step, shownTime))}</div>
-      <div className="grid grid-cols-1 gap-3 border-t border-ink-800 bg-ink-900 px-6 py-4 md:grid-cols-[1fr_auto]">
-        <div key={step?.id ?? 'none'} className="animate-[armilla-fadein_400ms_ease-out] motion-reduce:animate-none">
-          <p className="text-xs uppercase tracking-[0.15em] text-brass-300" aria-live="polite">
-            Step {index + 1} of {scene.steps.length}
-            {step?.title ? ` · ${step.title}` : ''}
-          </p>
-          {step?.caption ? <Markdown source={step.caption} className="mt-1 text-lg" /> : null}
-        </div>
-        <div className="flex flex-col items-end gap-2 text-right">
-          <p className="font-mono text-2xl tabular-nums" aria-label="Sky time at the site">
-            {formatInZone(shownTime, scene.site.timeZone ?? 'UTC')}
-          </p>
-          <p className="text-xs text-ink-300">Clock {now.toLocaleTimeString()}</p>
-          {broadcastError && <p className="text-xs text-danger-300">Followers not updated: {broadcastError}</p>}
-          <div className="flex gap-2">
-            <Button variant="secondary" onClick={() => go(-1)} disabled={index === 0} aria-label="Previous step">
-              ←
-            </Button>
-            <Button variant="secondary" onClick={() => go(1)} disabled={index >= scene.steps.length - 1} aria-label="Next step">
-              →
-            </Button>
-            <Button variant="ghost" onClick={onClose}>
-              Leave (Esc)
-            </Button>
-          </div>
-        </div>
-      </div>
-    </div>
+      controls={
+        <>
+          <button type="button" className={STAGE_BUTTON} onClick={() => go(-1)} disabled={index === 0} aria-label="Previous step" title="Previous step (←)">
+            <span aria-hidden="true">←</span>
+          </button>
+          <button type="button" className={STAGE_BUTTON} onClick={() => go(1)} disabled={index >= scene.steps.length - 1} aria-label="Next step" title="Next step (→)">
+            <span aria-hidden="true">→</span>
+          </button>
+          <NightModeButton className={STAGE_BUTTON} />
+          <button type="button" className={STAGE_BUTTON} onClick={onClose}>
+            Leave (Esc)
+          </button>
+        </>
+      }
+    />
+  );
+}
+
+/**
+ * What a follower of a live presentation sees: the same stage as the room, following the presenter's
+ * step (the time eases to it as in the room), with "Stop following" in place of the step buttons.
+ */
+export function AudienceStage({ scene, state, connected, ended, onStop, renderSky }: { scene: SceneLike; state: PresenterOut; connected: boolean; ended: boolean; onStop: () => void; renderSky: (s: SceneLike) => ReactNode }) {
+  const step = scene.steps[state.stepIndex];
+  const shownTime = useEasedTime(state.time ?? step?.time ?? scene.time);
+  const box = useRef<HTMLDivElement>(null);
+  useEffect(() => box.current?.focus(), []);
+  return (
+    <Stage
+      boxRef={box}
+      label="Live presentation"
+      testId="audience-stage"
+      sky={renderSky(sceneAtStep(scene, step, shownTime))}
+      step={step}
+      index={state.stepIndex}
+      count={scene.steps.length}
+      time={shownTime}
+      timeZone={scene.site.timeZone ?? 'UTC'}
+      status={
+        <p role="status" className="flex items-center gap-2 text-xs text-ink-300">
+          <span aria-hidden="true" className={`inline-block h-2 w-2 rounded-full ${connected ? 'bg-ok-300' : 'bg-ink-500'}`} />
+          {ended ? 'The presentation ended' : connected ? 'Following the presenter' : 'Reconnecting to the presenter…'}
+        </p>
+      }
+      onKeyDown={(e) => {
+        if (e.key === 'Escape') {
+          e.preventDefault();
+          onStop();
+        }
+      }}
+      controls={
+        <>
+          <NightModeButton className={STAGE_BUTTON} />
+          <button type="button" className={STAGE_BUTTON} onClick={onStop}>
+            Stop following (Esc)
+          </button>
+        </>
+      }
+    />
   );
 }
 

@@ -14,7 +14,7 @@ import { INPUT, LABEL } from './bits';
 
 const PAGE = 10;
 
-/** The scene's thumbnail: the snapshot an editor saved, else the sky chart the server makes (src/lib/thumbnails/). */
+/** The scene's thumbnail: the snapshot an editor saved, else the sky chart the server makes (src/lib/server/thumbnails/). */
 function Thumb({ id, title, version }: { id: string; title: string; version?: number }) {
   const [failed, setFailed] = useState(false);
   if (failed)
@@ -83,7 +83,7 @@ function ActivityList({ teamId, titles }: { teamId: string; titles: Map<string, 
             ) : title ? (
               <span>{title}</span>
             ) : null}
-            <time className="text-xs text-ink-500" dateTime={a.at} title={new Date(a.at).toLocaleString()}>
+            <time className="text-xs text-ink-300" dateTime={a.at} title={new Date(a.at).toLocaleString()}>
               · {timeAgo(a.at)}
             </time>
           </li>

@@ -1,6 +1,7 @@
 /**
- * /scenes/[id]: the sky beside the panels (scene, steps, review, share, history). Editors' changes are
- * autosaved with the version they were based on; a 409 opens the conflict choice.
+ * /scenes/[id]: the sky fills the page, the editor (scene, steps, review, share, history) is a drawer
+ * beside it. Editors' changes are autosaved with the version they were based on; a 409 opens the
+ * conflict choice. Present opens the stage; following a presenter shows the audience's stage.
  */
 import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import { useQuery } from '@tanstack/react-query';
@@ -21,8 +22,11 @@ import { SharePanel } from './SharePanel';
 import { SaveBadge, Section, Tabs } from './bits';
 import { Sky, shrinkPng, type PickedPoint } from './Sky';
 import { StepsEditor } from '../briefing/StepsEditor';
-import { FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
+import { AudienceStage, FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
+import { SkyWorkspace } from '../stage/SkyWorkspace';
 import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+import { NightPanel } from '../night/NightPanel';
+import { chartComments, nightRevision } from '../night/mount';
 
 type Tab = 'scene' | 'steps' | 'review' | 'share' | 'history';
 const RANK: Record<Role, number> = { viewer: 0, reviewer: 1, editor: 2, owner: 3 };
@@ -99,6 +103,14 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
   const followedStep = following && follow.state ? scene.steps[follow.state.stepIndex] : undefined;
   const viewScene: SceneLike = following && follow.state ? sceneAtStep(like, followedStep, follow.state.time) : shownStep ? sceneAtStep(like, scene.steps.find((s) => s.id === shownStep)) : like;
   const viewEditable = canEdit && !shownStep && !following;
+  // The view's instant shared by the sphere and the night charts (null: the scene's or the step's time).
+  const [viewMs, setViewMs] = useState<number | null>(null);
+  useEffect(() => setViewMs(null), [viewScene.time]);
+  const skyScene = viewMs !== null ? { ...viewScene, time: new Date(viewMs).toISOString() } : viewScene;
+  const onNightCursor = (t: number, done: boolean) => {
+    setViewMs(t);
+    if (done && viewEditable) edit({ time: new Date(Math.round(t / 1000) * 1000).toISOString().replace('.000Z', 'Z') });
+  };
 
   const onPick = (p: PickedPoint) => {
     if (pinDraft) {
@@ -147,97 +159,133 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
     { key: 'history', label: 'History' },
   ];
 
-  return (
-    <div className="flex flex-col gap-4">
-      <div className="flex flex-wrap items-center justify-between gap-3">
-        <div className="min-w-0">
-          <p className="text-xs uppercase tracking-[0.15em] text-ink-300">Scene · your role: {role}</p>
-          <h1 className="truncate text-2xl font-bold" data-testid="scene-title">
-            {scene.title}
-          </h1>
-        </div>
-        <div className="flex flex-wrap items-center gap-2">
-          {canEdit && <SaveBadge status={st.status} version={saver.version} />}
-          {st.status === 'error' && (
-            <Button variant="secondary" onClick={() => saver.retry()}>
-              Retry save
-            </Button>
-          )}
-          {following ? (
-            <FollowBadge connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} />
-          ) : (
-            <Button variant="secondary" onClick={() => setFollowing(true)}>
-              Follow presenter
-            </Button>
-          )}
-        </div>
-      </div>
-      {st.message && st.status === 'error' && <Alert tone="error">Not saved: {st.message}</Alert>}
-      {st.status === 'conflict' && st.theirs && (
-        <ConflictDialog mine={scene} theirs={st.theirs} dirty={st.dirty} onKeepMine={() => void saver.keepMine()} onTakeTheirs={() => saver.takeTheirs()} />
+  const strip = (
+    <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+      <a href={`/dashboard?team=${encodeURIComponent(scene.teamId)}`} className="text-sm text-ink-300 underline hover:text-brass-200">
+        ← Dashboard
+      </a>
+      <h1 className="min-w-0 max-w-full truncate text-xl font-bold" data-testid="scene-title">
+        {scene.title}
+      </h1>
+      <span className="text-xs uppercase tracking-[0.15em] text-ink-300">your role: {role}</span>
+      {canEdit && <SaveBadge status={st.status} version={saver.version} />}
+      {st.status === 'error' && (
+        <Button variant="secondary" className="px-3 py-1.5" onClick={() => saver.retry()}>
+          Retry save
+        </Button>
       )}
+      {scene.steps.length > 0 && (
+        <Button variant="secondary" className="px-3 py-1.5" onClick={() => setPresenting(0)} data-testid="present-top">
+          Start presenting
+        </Button>
+      )}
+      {following ? (
+        <FollowBadge connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} />
+      ) : (
+        <Button variant="secondary" className="px-3 py-1.5" onClick={() => setFollowing(true)}>
+          Follow presenter
+        </Button>
+      )}
+    </div>
+  );
+
+  const sky = (
+    <div className="flex h-full min-h-0 flex-col gap-1">
+      {st.message && st.status === 'error' && <Alert tone="error">Not saved: {st.message}</Alert>}
       {(picking || pinDraft) && (
-        <div role="status" className="rounded-md border border-brass-500/60 bg-brass-500/10 px-3 py-2 text-sm text-brass-200">
+        <div role="status" className="rounded-md border border-brass-500/60 bg-brass-500/10 px-3 py-1.5 text-sm text-brass-200">
           {pinDraft ? 'Click on the sky to place the pin’s points.' : 'Click on the sky where your comment belongs.'}{' '}
           <button type="button" className="underline" onClick={() => (pinDraft ? setPinDraft(null) : setPicking(false))}>
             Cancel
           </button>
         </div>
       )}
-      <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_26rem]">
-        <div className="min-w-0" data-testid="sky">
-          <Sky scene={viewScene} edit={viewEditable} onChange={onViewChange} comments={markers} onPick={onPick} onSnapshot={canEdit ? setSnap : undefined} />
-          {shownStep && (
-            <p className="mt-2 text-sm text-brass-200">
-              Showing a step.{' '}
-              <button type="button" className="underline" onClick={() => setShownStep(null)}>
-                Back to the scene
-              </button>
-            </p>
-          )}
-          {canEdit && snap && (
-            <div className="mt-2 flex flex-wrap items-center gap-2 rounded border border-ink-700 p-2 text-sm">
-              <img src={snap} alt="The snapshot just taken" className="h-16 rounded border border-ink-700" />
-              <Button onClick={() => void saveThumbnail()}>Save snapshot as thumbnail</Button>
-              <Button variant="ghost" onClick={() => setSnap(null)}>
-                Dismiss
-              </Button>
-            </div>
-          )}
-          {snapMsg && (
-            <div className="mt-2">
-              <Alert tone={snapMsg.tone}>{snapMsg.text}</Alert>
-            </div>
-          )}
-        </div>
-        <div className="flex min-w-0 flex-col gap-3">
-          <Tabs label="Scene panels" tabs={tabs} current={tab} onChange={setTab} />
-          <div role="tabpanel" aria-label={tabs.find((t) => t.key === tab)?.label}>
-            {tab === 'scene' && <EditorPanel scene={scene} edit={edit} readOnly={!canEdit} pinDraft={pinDraft} setPinDraft={setPinDraft} sync={canEdit ? sync : undefined} />}
-            {tab === 'steps' && <StepsEditor scene={scene} onChange={(steps) => edit({ steps })} readOnly={!canEdit} onPresent={(i) => setPresenting(i)} onShowStep={setShownStep} shownStepId={shownStep} />}
-            {tab === 'review' && (
-              <ReviewPanel
-                access={access}
-                steps={scene.steps}
-                anchor={anchor}
-                onPick={() => setPicking(true)}
-                onClearAnchor={() => setAnchor(null)}
-                focusedId={focusedComment}
-                onFocus={(c: CommentOut) => setFocusedComment(c.id)}
-              />
-            )}
-            {tab === 'share' && canEdit && <SharePanel sceneId={scene.id} title={scene.title} />}
-            {tab === 'history' && <VersionHistory scene={{ ...scene, version: saver.version }} canRestore={canEdit} memberNames={memberNames} onRestored={(s) => saver.adopt(s)} />}
-          </div>
-          <Section title="Export & print">
-            <ExportPanel source={{ kind: 'scene', id: scene.id }} time={viewScene.time} />
-          </Section>
-        </div>
-      </div>
-      {presenting !== null && (
-        <Presenter scene={like} startIndex={presenting} onClose={() => setPresenting(null)} broadcastUrl={canEdit ? `/api/scenes/${scene.id}/presenter` : null} renderSky={(s) => <Sky scene={s} height="100%" />} />
+      {shownStep && (
+        <p className="text-sm text-brass-200">
+          Showing a step.{' '}
+          <button type="button" className="underline" onClick={() => setShownStep(null)}>
+            Back to the scene
+          </button>
+        </p>
       )}
+      <div className="min-h-0 flex-1">
+        <Sky scene={skyScene} edit={viewEditable} onChange={onViewChange} comments={markers} onPick={onPick} onSnapshot={canEdit ? setSnap : undefined} onTimeChange={setViewMs} />
+      </div>
     </div>
+  );
+
+  const drawer = (
+    <>
+      {canEdit && snap && (
+        <div className="flex flex-wrap items-center gap-2 rounded border border-ink-700 p-2 text-sm">
+          <img src={snap} alt="The snapshot just taken" className="h-16 rounded border border-ink-700" />
+          <Button onClick={() => void saveThumbnail()}>Save snapshot as thumbnail</Button>
+          <Button variant="ghost" onClick={() => setSnap(null)}>
+            Dismiss
+          </Button>
+        </div>
+      )}
+      {snapMsg && <Alert tone={snapMsg.tone}>{snapMsg.text}</Alert>}
+      <Tabs label="Scene panels" tabs={tabs} current={tab} onChange={setTab} />
+      <div role="tabpanel" aria-label={tabs.find((t) => t.key === tab)?.label}>
+        {tab === 'scene' && <EditorPanel scene={scene} edit={edit} readOnly={!canEdit} pinDraft={pinDraft} setPinDraft={setPinDraft} sync={canEdit ? sync : undefined} />}
+        {tab === 'steps' && <StepsEditor scene={scene} onChange={(steps) => edit({ steps })} readOnly={!canEdit} onPresent={(i) => setPresenting(i)} onShowStep={setShownStep} shownStepId={shownStep} />}
+        {tab === 'review' && (
+          <ReviewPanel
+            access={access}
+            steps={scene.steps}
+            anchor={anchor}
+            onPick={() => setPicking(true)}
+            onClearAnchor={() => setAnchor(null)}
+            focusedId={focusedComment}
+            onFocus={(c: CommentOut) => setFocusedComment(c.id)}
+          />
+        )}
+        {tab === 'share' && canEdit && <SharePanel sceneId={scene.id} title={scene.title} />}
+        {tab === 'history' && <VersionHistory scene={{ ...scene, version: saver.version }} canRestore={canEdit} memberNames={memberNames} onRestored={(s) => saver.adopt(s)} />}
+      </div>
+      <Section title="Export & print">
+        <ExportPanel source={{ kind: 'scene', id: scene.id }} time={viewScene.time} />
+      </Section>
+    </>
+  );
+
+  const night = (
+    <div className="px-3 pb-6 pt-2" data-testid="night-section">
+    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <NightPanel
+        source={{ kind: 'scene', id: scene.id }}
+        timeZone={scene.site.timeZone ?? 'UTC'}
+        revision={nightRevision(scene)}
+        cursor={viewMs ?? Date.parse(viewScene.time)}
+        onCursor={onNightCursor}
+        comments={chartComments(comments.data ?? [])}
+        onPickComment={
+          canComment
+            ? (a) => {
+                setAnchor(a);
+                setTab('review');
+              }
+            : undefined
+        }
+      />
+    </Section>    </div>
+  );
+
+  return (
+    <>
+      {st.status === 'conflict' && st.theirs && (
+        <ConflictDialog mine={scene} theirs={st.theirs} dirty={st.dirty} onKeepMine={() => void saver.keepMine()} onTakeTheirs={() => saver.takeTheirs()} />
+      )}
+      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel={canEdit ? 'Editor' : 'Scene panels'} />
+      {night}
+      {presenting !== null && (
+        <Presenter scene={like} startIndex={presenting} onClose={() => setPresenting(null)} broadcastUrl={canEdit ? `/api/scenes/${scene.id}/presenter` : null} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
+      )}
+      {presenting === null && following && follow.state && (
+        <AudienceStage scene={like} state={follow.state} connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
+      )}
+    </>
   );
 }
 

@@ -1,4 +1,7 @@
-/** What a share link opens: the scene read-only, its steps, follow the presenter, and for reviewer links comments. */
+/**
+ * What a share link opens: the scene read-only with the sky filling the page, its steps in a drawer (after
+ * the sky on a phone), follow the presenter (the audience's stage), and for reviewer links comments.
+ */
 import { useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
@@ -10,9 +13,12 @@ import { anchorFromPick, commentMarkers, formatInZone, sceneAtStep, toSceneLike 
 import { Sky, type PickedPoint } from './Sky';
 import { Section, Tabs } from './bits';
 import { ExportPanel } from './ExportPanel';
-import { FollowBadge, useFollow } from '../briefing/Presenter';
+import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
+import { SkyWorkspace } from '../stage/SkyWorkspace';
 import { Markdown } from '../briefing/Markdown';
 import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+import { NightPanel } from '../night/NightPanel';
+import { chartComments, nightRevision } from '../night/mount';
 
 function Shared({ token, embed }: { token: string; embed: boolean }) {
   const q = useQuery({
@@ -25,7 +31,9 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const [stepIdx, setStepIdx] = useState<number | null>(null);
   const [picking, setPicking] = useState(false);
   const [anchor, setAnchor] = useState<Anchor | null>(null);
-  const [tab, setTab] = useState<'steps' | 'review'>(() => (typeof location !== 'undefined' && location.hash.startsWith('#comment-') ? 'review' : 'steps'));
+  // The view's instant shared by the sphere and the night charts, for the scene/step time it was set against.
+  const [view, setView] = useState<{ ms: number; base: string } | null>(null);
+  const [tab, setTab] = useState<'steps' | 'review' | 'about'>(() => (typeof location !== 'undefined' && location.hash.startsWith('#comment-') ? 'review' : 'steps'));
   const reviewer = q.data?.role === 'reviewer' && !embed;
   const access: ReviewAccess = { kind: 'guest', token, canComment: true };
   const comments = useComments(access, reviewer);
@@ -45,6 +53,9 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const idx = following && follow.state ? follow.state.stepIndex : stepIdx;
   const step = idx !== null ? scene.steps[idx] : undefined;
   const shown = following && follow.state ? sceneAtStep(like, step, follow.state.time) : sceneAtStep(like, step);
+  const viewMs = view && view.base === shown.time ? view.ms : null;
+  const skyScene = viewMs !== null ? { ...shown, time: new Date(viewMs).toISOString() } : shown;
+  const setViewMs = (ms: number) => setView({ ms, base: shown.time });
   const onPick = (p: PickedPoint) => {
     if (!picking) return;
     setAnchor(anchorFromPick(p));
@@ -64,7 +75,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
     return (
       <div className="flex h-screen flex-col">
         <div className="min-h-0 flex-1">
-          <Sky scene={shown} height="calc(100vh - 3rem)" />
+          <Sky scene={shown} chrome="stage" />
         </div>
         <div className="flex h-12 items-center justify-between gap-2 border-t border-ink-800 px-3 text-xs">
           <span className="truncate">
@@ -81,73 +92,116 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
     );
   }
 
-  return (
-    <div className="flex flex-col gap-4">
-      <div className="flex flex-wrap items-center justify-between gap-3">
-        <div className="min-w-0">
-          <p className="text-xs uppercase tracking-[0.15em] text-ink-300">Shared scene · {q.data.role === 'reviewer' ? 'you may comment' : 'read-only'}</p>
-          <h1 className="text-2xl font-bold">{scene.title}</h1>
-          <p className="text-sm text-ink-300">
-            {scene.site.name} · {formatInZone(scene.time, scene.site.timeZone ?? 'UTC')}
-          </p>
-        </div>
-        {followCtl}
-      </div>
+  const strip = (
+    <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+      <h1 className="min-w-0 max-w-full truncate text-xl font-bold">{scene.title}</h1>
+      <span className="text-sm text-ink-300">
+        {scene.site.name} · {formatInZone(scene.time, scene.site.timeZone ?? 'UTC')}
+      </span>
+      <span className="text-xs uppercase tracking-[0.15em] text-ink-300">{q.data.role === 'reviewer' ? 'you may comment' : 'read-only'}</span>
+      {followCtl}
+    </div>
+  );
+
+  const sky = (
+    <div className="flex h-full min-h-0 flex-col gap-1">
       {picking && (
-        <div role="status" className="rounded-md border border-brass-500/60 bg-brass-500/10 px-3 py-2 text-sm text-brass-200">
+        <div role="status" className="rounded-md border border-brass-500/60 bg-brass-500/10 px-3 py-1.5 text-sm text-brass-200">
           Click on the sky where your comment belongs.{' '}
           <button type="button" className="underline" onClick={() => setPicking(false)}>
             Cancel
           </button>
         </div>
       )}
-      <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_24rem]">
-        <div className="min-w-0" data-testid="sky">
-          <Sky scene={shown} comments={markers} onPick={onPick} />
-          {step?.caption && (
-            <div className="mt-3 rounded border border-ink-700 p-3">
-              <Markdown source={step.caption} />
-            </div>
-          )}
-        </div>
-        <div className="flex min-w-0 flex-col gap-3">
-          {scene.description && <Markdown source={scene.description} className="text-sm text-ink-300" />}
-          <Tabs
-            label="Shared scene panels"
-            current={tab}
-            onChange={setTab}
-            tabs={[{ key: 'steps', label: `Steps (${scene.steps.length})` }, ...(reviewer ? [{ key: 'review' as const, label: 'Comments' }] : [])]}
-          />
-          <div role="tabpanel">
-            {tab === 'steps' && (
-              <ol className="flex flex-col gap-2" aria-label="Steps">
-                {scene.steps.length === 0 && <li className="text-sm text-ink-300">This scene has no steps.</li>}
-                {scene.steps.map((s, i) => (
-                  <li key={s.id}>
-                    <button
-                      type="button"
-                      disabled={following}
-                      aria-pressed={idx === i}
-                      onClick={() => setStepIdx(stepIdx === i ? null : i)}
-                      className="w-full rounded border border-ink-700 p-2 text-left text-sm hover:border-brass-300 aria-pressed:border-brass-400 disabled:opacity-60"
-                    >
-                      <span className="font-medium">
-                        {i + 1}. {s.title || 'Untitled step'}
-                      </span>
-                      <span className="block text-xs text-ink-300">{formatInZone(s.time, scene.site.timeZone ?? 'UTC')}</span>
-                    </button>
-                  </li>
-                ))}
-              </ol>
-            )}
-            {tab === 'review' && reviewer && <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />}
-          </div>
-          <Section title="Export & print">
-            <ExportPanel source={{ kind: 'shared', token }} time={shown.time} />
-          </Section>
-        </div>
+      <div className="min-h-0 flex-1">
+        <Sky scene={skyScene} comments={markers} onPick={onPick} onTimeChange={setViewMs} />
       </div>
     </div>
+  );
+
+  const drawer = (
+    <>
+      {step && (
+        <section aria-label="Step shown" className="rounded border border-ink-700 p-3" data-testid="shared-step-caption">
+          <p className="text-xs uppercase tracking-[0.15em] text-brass-300">
+            Step {(idx ?? 0) + 1} of {scene.steps.length}
+            {step.title ? ` · ${step.title}` : ''}
+          </p>
+          {step.caption && <Markdown source={step.caption} className="mt-1" />}
+        </section>
+      )}
+      <Tabs
+        label="Shared scene panels"
+        current={tab}
+        onChange={setTab}
+        tabs={[{ key: 'steps', label: `Steps (${scene.steps.length})` }, ...(reviewer ? [{ key: 'review' as const, label: 'Comments' }] : []), { key: 'about', label: 'About' }]}
+      />
+      <div role="tabpanel">
+        {tab === 'steps' && (
+          <ol className="flex flex-col gap-2" aria-label="Steps">
+            {scene.steps.length === 0 && <li className="text-sm text-ink-300">This scene has no steps.</li>}
+            {scene.steps.map((s, i) => (
+              <li key={s.id}>
+                <button
+                  type="button"
+                  disabled={following}
+                  aria-pressed={idx === i}
+                  onClick={() => setStepIdx(stepIdx === i ? null : i)}
+                  className="w-full rounded border border-ink-700 p-2 text-left text-sm hover:border-brass-300 aria-pressed:border-brass-400 disabled:opacity-60"
+                >
+                  <span className="font-medium">
+                    {i + 1}. {s.title || 'Untitled step'}
+                  </span>
+                  <span className="block text-xs text-ink-300">{formatInZone(s.time, scene.site.timeZone ?? 'UTC')}</span>
+                </button>
+              </li>
+            ))}
+          </ol>
+        )}
+        {tab === 'review' && reviewer && <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />}
+        {tab === 'about' && (
+          <div className="flex flex-col gap-3">
+            {scene.description ? <Markdown source={scene.description} className="text-sm text-ink-300" /> : <p className="text-sm text-ink-300">No description.</p>}
+            <Section title="Export & print">
+              <ExportPanel source={{ kind: 'shared', token }} time={shown.time} />
+            </Section>
+          </div>
+        )}
+      </div>
+    </>
+  );
+
+  const night = (
+    <div className="px-3 pb-6 pt-2" data-testid="night-section">
+    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <NightPanel
+        source={{ kind: 'shared', token }}
+        timeZone={scene.site.timeZone ?? 'UTC'}
+        revision={nightRevision(scene)}
+        cursor={viewMs ?? Date.parse(shown.time)}
+        onCursor={(t) => setViewMs(t)}
+        comments={reviewer ? chartComments(comments.data ?? []) : []}
+        onPickComment={
+          reviewer
+            ? (a) => {
+                setAnchor(a);
+                setTab('review');
+              }
+            : undefined
+        }
+      />
+    </Section>
+    </div>
+  );
+
+  return (
+    <>
+      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel="Steps and details" />
+      {night}
+      {following && follow.state && (
+        <AudienceStage scene={like} state={follow.state} connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
+      )}
+    </>
   );
 }
 

@@ -5,7 +5,7 @@ import type { CommentAnchor } from '../sphere/context';
 
 export type PickedPoint = { ra: number; dec: number; azimuth: number; altitude: number };
 
-export function Sky(props: { scene: SceneLike; edit?: boolean; onChange?: (s: SceneLike) => void; comments?: CommentAnchor[]; onPick?: (p: PickedPoint) => void; onSnapshot?: (url: string) => void; height?: string }) {
+export function Sky(props: { scene: SceneLike; edit?: boolean; onChange?: (s: SceneLike) => void; comments?: CommentAnchor[]; onPick?: (p: PickedPoint) => void; onSnapshot?: (url: string) => void; chrome?: 'full' | 'stage'; onTimeChange?: (ms: number) => void }) {
   return (
     <SkyView
       scene={props.scene as never}
@@ -14,7 +14,8 @@ export function Sky(props: { scene: SceneLike; edit?: boolean; onChange?: (s: Sc
       comments={props.comments}
       onPickPoint={props.onPick}
       onSnapshot={props.onSnapshot}
-      height={props.height}
+      chrome={props.chrome}
+      onTimeChange={props.onTimeChange}
     />
   );
 }

@@ -301,7 +301,7 @@ function Renderer() {
   const cache = useRef<{ version: number; ui: unknown; items: LabelItem[] }>({ version: -1, ui: null, items: [] });
   const { gl, scene, camera } = useThree();
   useEffect(() => {
-    // Test hook: page coordinates of a body as drawn (null when off screen or below the horizon).
+    // Test hook: page coordinates of a body as drawn (null when off screen, below the horizon or under a panel).
     (window as any).__armillaProject = (body: string) => {
       const b = model.bodies.find((x) => x.body === body);
       if (!b || b.altDeg < 2) return null;
@@ -311,7 +311,11 @@ function Renderer() {
       v.applyMatrix4(camera.projectionMatrix);
       if (Math.abs(v.x) > 0.9 || Math.abs(v.y) > 0.9) return null;
       const r = gl.domElement.getBoundingClientRect();
-      return { x: r.left + (v.x * 0.5 + 0.5) * r.width, y: r.top + (-v.y * 0.5 + 0.5) * r.height };
+      const x = r.left + (v.x * 0.5 + 0.5) * r.width, y = r.top + (-v.y * 0.5 + 0.5) * r.height;
+      // Not under one of the panels or bars drawn over the sky (a click there would not reach the sky).
+      const top = document.elementFromPoint(x, y);
+      if (top && !gl.domElement.closest('[data-testid=sky-canvas]')?.contains(top)) return null;
+      return { x, y };
     };
     hud.snapshot = async () => {
       gl.render(scene, camera);

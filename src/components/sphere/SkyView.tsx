@@ -1,6 +1,9 @@
 /**
- * <SkyView>: the celestial-sphere view of a scene (Observer view and Sphere view), with its legend, time bar,
- * readouts, selection card, text alternative, solar caution and PNG snapshot. Mount with client:only="react".
+ * <SkyView>: the celestial-sphere view of a scene (Observer view and Sphere view). With `chrome="full"` the
+ * sky fills its box and the controls sit over it: a time bar at the bottom, collapsible panels (time,
+ * layers, pointer, the sky in words) on the left, the object card on the right; on a phone they follow
+ * the sky instead. With `chrome="stage"` only the sky and the solar caution are drawn (presenter, audience,
+ * embed). Mount with client:only="react".
  */
 import { Component, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
 import { DEFAULT_LAYERS, type Layers } from '../../lib/scenes/scene';
@@ -9,11 +12,16 @@ import * as engine from './engine';
 import type { EnvelopeLike } from './engine';
 import { formatHours } from './geometry';
 import { SkyModel, type TargetLike } from './model';
+import { FloatPanel } from './FloatPanel';
+import { keyAction } from './keys';
+import { KeyHelp } from './KeyHelp';
+import { jumpToNextEvent } from './next-event';
 import { Legend, Readout, SelectionCard, SkySummary, TimeBar } from './panels';
+import { TimeStrip } from './TimeStrip';
 import SkyCanvas from './SkyCanvas';
 import { composeSnapshot } from './snapshot';
 import { Clock, createStore, useStore } from './store';
-import { formatOffset, formatUtc, formatWall, isoUtc, SIDEREAL_DAY_MS } from './time';
+import { formatOffset, formatUtc, formatWall, isoUtc } from './time';
 
 /**
  * Keeps the page working when the browser gives no WebGL (blocked, or no GPU and no software fallback):
@@ -40,7 +48,10 @@ class DrawingGuard extends Component<{ children: ReactNode }, { failed: boolean 
 
 export interface SceneLike {
   title: string;
-  site: { name: string; lat: number; lon: number; height?: number; timeZone?: string };
+  site: {
+    name: string; lat: number; lon: number; height?: number; timeZone?: string;
+    earthOrientation?: { dut1: number; xp: number; yp: number; date: string; source: string };
+  };
   /** ISO 8601 UTC. */
   time: string;
   layers?: Layers;
@@ -58,8 +69,10 @@ export interface SkyViewProps {
   comments?: CommentAnchor[];
   onPickPoint?: (anchor: { ra: number; dec: number; azimuth: number; altitude: number }) => void;
   onSnapshot?: (dataUrl: string) => void;
-  /** Height of the sky canvas, CSS (default 70vh). */
-  height?: string;
+  /** `full`: the sky with its panels and time bar (default); `stage`: the sky alone (presenter, audience). */
+  chrome?: 'full' | 'stage';
+  /** The view's instant as it moves (time bar, playing, steps), at most five times a second: keeps the night chart's cursor in step. */
+  onTimeChange?: (ms: number) => void;
 }
 
 const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text-slate-100 hover:bg-slate-700 focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400';
@@ -67,10 +80,14 @@ const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text
 const SUN_UP_ALT = -50 / 60; // upper limb on the horizon (USNO)
 
 function siteInput(s: SceneLike['site']): engine.SiteInput {
-  return { latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0 };
+  const e = s.earthOrientation;
+  return {
+    latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0,
+    ...(e ? { dut1Sec: e.dut1, xpArcsec: e.xp, ypArcsec: e.yp, eopDate: e.date, eopSource: e.source } : {}),
+  };
 }
 
-export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, height = '70vh' }: SkyViewProps) {
+export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, chrome = 'full', onTimeChange }: SkyViewProps) {
   const timeZone = scene.site.timeZone ?? 'UTC';
   const handles = useMemo<ViewHandles>(() => {
     const ms = Date.parse(scene.time);
@@ -103,7 +120,6 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
   const overlayRef = useRef<HTMLCanvasElement>(null);
   const [sunUp, setSunUp] = useState(false);
   const [sunTargets, setSunTargets] = useState<string[]>([]);
-  const [stepIdx, setStepIdx] = useState<number | null>(null);
   const [snapUrl, setSnapUrl] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
 
@@ -111,7 +127,7 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
   useEffect(() => {
     model.setSite(siteInput(scene.site));
     hud.invalidate?.();
-  }, [scene.site.lat, scene.site.lon, scene.site.height]);
+  }, [scene.site.lat, scene.site.lon, scene.site.height, scene.site.earthOrientation?.dut1, scene.site.earthOrientation?.xp, scene.site.earthOrientation?.yp]);
   useEffect(() => {
     const ms = Date.parse(scene.time);
     if (Number.isFinite(ms)) clock.setMs(ms);
@@ -129,11 +145,8 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
     }
     const c = scene.camera;
     if (!c) return;
-    if (c.azDeg !== undefined) cam.az = c.azDeg;
-    if (c.altDeg !== undefined) cam.alt = c.altDeg;
-    if (c.fovDeg !== undefined) cam.fov = c.fovDeg;
     if (c.mode && c.mode !== store.get().mode) store.set({ mode: c.mode });
-    hud.invalidate?.();
+    return glideCamera(cam, c, () => hud.invalidate?.());
   }, [cameraKey]);
   useEffect(() => {
     model.setPlan(scene.envelope ?? null, scene.targets ?? []);
@@ -141,6 +154,23 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
     store.set({ pins: scene.pins ?? [] });
     hud.invalidate?.();
   }, [scene.envelope, scene.targets, scene.pins]);
+  const timeListener = useRef(onTimeChange);
+  timeListener.current = onTimeChange;
+  useEffect(() => {
+    // at most five times a second, and once more after the last change
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    const off = clock.subscribe(() => {
+      if (timer || !timeListener.current) return;
+      timer = setTimeout(() => {
+        timer = null;
+        timeListener.current?.(clock.ms);
+      }, 200);
+    });
+    return () => {
+      off();
+      if (timer) clearTimeout(timer);
+    };
+  }, []);
   useEffect(() => {
     store.set({ comments: comments ?? [] });
     hud.invalidate?.();
@@ -231,83 +261,104 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
     }
   };
 
-  const applyStep = (i: number) => {
-    const s = scene.steps?.[i];
-    if (!s) return;
-    setStepIdx(i);
-    const ms = Date.parse(s.time);
-    if (Number.isFinite(ms)) clock.setMs(ms);
-    if (s.layers) store.set((st) => ({ layers: { ...st.layers, ...s.layers } as Required<Layers> }));
-    if (s.camera) {
-      if (s.camera.azDeg !== undefined) cam.az = s.camera.azDeg;
-      if (s.camera.altDeg !== undefined) cam.alt = s.camera.altDeg;
-      if (s.camera.fovDeg !== undefined) cam.fov = s.camera.fovDeg;
-      if (s.camera.mode) store.set({ mode: s.camera.mode });
+  const onKey = (e: KeyboardEvent) => {
+    if (e.ctrlKey || e.metaKey || e.altKey) return;
+    const act = keyAction(e.key, e.shiftKey);
+    if (!act || act.kind === 'help') return; // `?` is answered page-wide by <KeyHelp>
+    const obs = store.get().mode === 'observer';
+    switch (act.kind) {
+      case 'look':
+        if (obs) {
+          cam.az = (cam.az + act.dAz + 360) % 360;
+          cam.alt = Math.max(-30, Math.min(89.5, cam.alt + act.dAlt));
+        } else hud.orbit?.(act.dAz, act.dAlt, 1);
+        break;
+      case 'zoom':
+        if (obs) cam.fov = Math.max(10, Math.min(120, cam.fov * act.factor));
+        else hud.orbit?.(0, 0, act.factor);
+        break;
+      case 'toggleView':
+        setMode(obs ? 'sphere' : 'observer');
+        break;
+      case 'step':
+        clock.setMs(clock.ms + act.ms);
+        break;
+      case 'nextEvent':
+        jumpToNextEvent(handles);
+        break;
+      case 'play':
+        clock.playing = !clock.playing;
+        store.set({ playing: clock.playing });
+        if (clock.playing) clock.setMs(clock.ms + 1);
+        break;
+      case 'now':
+        clock.setMs(Date.now());
+        break;
+      case 'clearSelection':
+        store.set({ selected: null });
+        break;
     }
+    e.preventDefault();
     hud.invalidate?.();
   };
 
-  const onKey = (e: KeyboardEvent) => {
-    const k = e.key;
-    const obs = store.get().mode === 'observer';
-    let handled = true;
-    if (k === 'ArrowLeft' || k === 'ArrowRight' || k === 'ArrowUp' || k === 'ArrowDown') {
-      const d = e.shiftKey ? 15 : 5;
-      if (obs) {
-        if (k === 'ArrowLeft') cam.az = (cam.az - d + 360) % 360;
-        if (k === 'ArrowRight') cam.az = (cam.az + d) % 360;
-        if (k === 'ArrowUp') cam.alt = Math.min(89.5, cam.alt + d);
-        if (k === 'ArrowDown') cam.alt = Math.max(-30, cam.alt - d);
-      } else hud.orbit?.(k === 'ArrowLeft' ? -d : k === 'ArrowRight' ? d : 0, k === 'ArrowUp' ? d : k === 'ArrowDown' ? -d : 0, 1);
-    } else if (k === '+' || k === '=') {
-      if (obs) cam.fov = Math.max(10, cam.fov / 1.15);
-      else hud.orbit?.(0, 0, 1 / 1.15);
-    } else if (k === '-' || k === '_') {
-      if (obs) cam.fov = Math.min(120, cam.fov * 1.15);
-      else hud.orbit?.(0, 0, 1.15);
-    } else if (k === 'v' || k === 'V') setMode(obs ? 'sphere' : 'observer');
-    else if (k === ']') clock.setMs(clock.ms + (e.shiftKey ? 86400000 : 3600000));
-    else if (k === '[') clock.setMs(clock.ms - (e.shiftKey ? 86400000 : 3600000));
-    else if (k === '.') clock.setMs(clock.ms + 60000);
-    else if (k === ',') clock.setMs(clock.ms - 60000);
-    else if (k === 's' || k === 'S') clock.setMs(clock.ms + (e.shiftKey ? -SIDEREAL_DAY_MS : SIDEREAL_DAY_MS));
-    else if (k === ' ' || k === 'p' || k === 'P') {
-      clock.playing = !clock.playing;
-      store.set({ playing: clock.playing });
-      if (clock.playing) clock.setMs(clock.ms + 1);
-    } else if (k === 'n' || k === 'N') clock.setMs(Date.now());
-    else if (k === 'Escape') store.set({ selected: null });
-    else handled = false;
-    if (handled) {
-      e.preventDefault();
-      hud.invalidate?.();
-    }
-  };
+  const caution = (sunUp || sunTargets.length > 0) && (
+    <div role="alert" className="shrink-0 rounded bg-red-700 px-3 py-1.5 text-sm font-bold text-white" data-testid="solar-caution">
+      {sunUp ? (
+        <>
+          Never point optics at the Sun without a certified full-aperture solar filter.
+          {sunTargets.length > 0 && <span className="font-normal"> Inside the Sun-avoidance angle: {sunTargets.join(', ')}.</span>}
+        </>
+      ) : (
+        <>Targets inside the Sun-avoidance angle: {sunTargets.join(', ')}. Never point optics at the Sun without a certified full-aperture solar filter.</>
+      )}
+    </div>
+  );
 
+  const sky = (
+    <div
+      className="absolute inset-0 bg-[#05070d] focus-visible:outline focus-visible:outline-2 focus-visible:-outline-offset-2 focus-visible:outline-sky-400"
+      tabIndex={0}
+      role="application"
+      aria-roledescription="sky view"
+      aria-label={`Sky over ${scene.site.name}. Arrow keys look around, plus and minus zoom, V switches Observer and Sphere view, H steps one hour (Shift H back), D one day, M one minute, S one sidereal day, E jumps to the next event, P or space plays, N jumps to now; question mark lists every key.${chrome === 'full' ? ' The panel “Above the horizon now” describes the sky in words.' : ''}`}
+      onKeyDown={onKey}
+      data-testid="sky-canvas"
+    >
+      <DrawingGuard>
+        <SkyCanvas handles={handles} onPickPoint={onPickPoint} />
+      </DrawingGuard>
+      <canvas ref={overlayRef} aria-hidden="true" className="pointer-events-none absolute inset-0 h-full w-full" />
+    </div>
+  );
+
+  if (chrome === 'stage') {
+    return (
+      <ViewContext.Provider value={handles}>
+        <div className="armilla-sky flex h-full w-full flex-col text-slate-100" data-testid="sky-view" data-chrome="stage" data-mode={uiMode}>
+          {caution}
+          <div className="relative min-h-0 flex-1">{sky}</div>
+        </div>
+      </ViewContext.Provider>
+    );
+  }
+
+  const over = 'lg:col-start-1 lg:row-start-1 lg:z-10';
   return (
     <ViewContext.Provider value={handles}>
-      <div className="armilla-sky flex flex-col gap-2 text-slate-100" data-testid="sky-view">
-        {sunUp && (
-          <div role="alert" className="rounded bg-red-700 px-3 py-2 text-sm font-bold text-white" data-testid="solar-caution">
-            Never point optics at the Sun without a certified full-aperture solar filter.
-            {sunTargets.length > 0 && <span className="font-normal"> Inside the Sun-avoidance angle: {sunTargets.join(', ')}.</span>}
-          </div>
-        )}
-        {!sunUp && sunTargets.length > 0 && (
-          <div role="alert" className="rounded bg-red-700 px-3 py-2 text-sm font-bold text-white" data-testid="solar-caution">
-            Targets inside the Sun-avoidance angle: {sunTargets.join(', ')}. Never point optics at the Sun without a certified full-aperture solar filter.
-          </div>
-        )}
-        <div className="flex flex-col gap-3 lg:flex-row">
-          <div className="min-w-0 flex-1 space-y-2">
-            <div className="flex flex-wrap items-center gap-2">
-              <div role="radiogroup" aria-label="View" className="flex overflow-hidden rounded border border-slate-600">
+      <div className="armilla-sky flex flex-col gap-2 text-slate-100 lg:h-full lg:gap-1" data-testid="sky-view" data-chrome="full" data-mode={uiMode}>
+        {caution}
+        <div className="flex flex-col gap-2 lg:grid lg:min-h-0 lg:flex-1 lg:grid-cols-[minmax(0,1fr)] lg:grid-rows-[minmax(0,1fr)] lg:gap-0">
+          <div className="relative h-[62svh] min-h-64 w-full overflow-hidden border border-slate-800 lg:col-start-1 lg:row-start-1 lg:h-full lg:min-h-0" data-testid="sky-area">
+            {sky}
+            <div className="pointer-events-none absolute left-2 right-2 top-2 z-10 flex flex-wrap items-center gap-2">
+              <div role="radiogroup" aria-label="View" className="pointer-events-auto flex overflow-hidden rounded border border-slate-600">
                 {(['observer', 'sphere'] as const).map((m) => (
                   <button
                     key={m}
                     role="radio"
                     aria-checked={uiMode === m}
-                    className={`px-3 py-1 text-xs ${uiMode === m ? 'bg-sky-700 text-white' : 'bg-slate-800 text-slate-200 hover:bg-slate-700'}`}
+                    className={`px-3 py-1 text-xs ${uiMode === m ? 'bg-sky-700 text-white' : 'bg-slate-900/90 text-slate-200 hover:bg-slate-700'}`}
                     onClick={() => setMode(m)}
                     data-testid={`mode-${m}`}
                   >
@@ -315,56 +366,74 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
                   </button>
                 ))}
               </div>
-              <button className={btn} onClick={snapshot} disabled={busy} data-testid="snapshot">
+              <button className={`${btn} pointer-events-auto`} onClick={snapshot} disabled={busy} data-testid="snapshot">
                 {busy ? 'Rendering…' : 'Snapshot (PNG)'}
               </button>
               {snapUrl && (
-                <a className={btn} href={snapUrl} download={`armilla-${isoUtc(clock.ms).replace(/[:]/g, '')}.png`} data-testid="snapshot-download">
+                <a className={`${btn} pointer-events-auto`} href={snapUrl} download={`armilla-${isoUtc(clock.ms).replace(/[:]/g, '')}.png`} data-testid="snapshot-download">
                   Download PNG
                 </a>
               )}
-              <span className="text-[11px] text-slate-400">{scene.site.name} · {scene.site.lat.toFixed(3)}°, {scene.site.lon.toFixed(3)}° · {Math.round(scene.site.height ?? 0)} m</span>
+              <KeyHelp buttonClassName={`${btn} pointer-events-auto w-7`} />
+              <span className="hidden rounded bg-slate-950/70 px-1.5 py-0.5 text-[11px] text-slate-300 sm:inline">
+                {scene.site.name} · {scene.site.lat.toFixed(3)}°, {scene.site.lon.toFixed(3)}° · {Math.round(scene.site.height ?? 0)} m
+              </span>
             </div>
-            <div
-              className="relative w-full border border-slate-700 bg-[#05070d] focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400"
-              style={{ height }}
-              tabIndex={0}
-              role="application"
-              aria-roledescription="sky view"
-              aria-label={`Sky over ${scene.site.name}. Arrow keys look around, plus and minus zoom, V switches Observer and Sphere view, [ and ] step one hour (with Shift one day), comma and period one minute, S one sidereal day, P or space plays, N jumps to now. The text summary beside the view describes what is up.`}
-              onKeyDown={onKey}
-              data-testid="sky-canvas"
-            >
-              <DrawingGuard>
-                <SkyCanvas handles={handles} onPickPoint={onPickPoint} />
-              </DrawingGuard>
-              <canvas ref={overlayRef} aria-hidden="true" className="pointer-events-none absolute inset-0 h-full w-full" />
-            </div>
-            {scene.steps && scene.steps.length > 0 && (
-              <nav aria-label="Briefing steps" className="flex flex-wrap items-center gap-1">
-                {scene.steps.map((s, i) => (
-                  <button key={s.id} className={`${btn} ${stepIdx === i ? 'bg-sky-700' : ''}`} aria-current={stepIdx === i ? 'step' : undefined} onClick={() => applyStep(i)}>
-                    {i + 1}. {s.title || 'Step'}
-                  </button>
-                ))}
-                {stepIdx !== null && scene.steps[stepIdx]?.caption && <p className="w-full whitespace-pre-wrap text-xs text-slate-300">{scene.steps[stepIdx].caption}</p>}
-              </nav>
-            )}
-            <p className="text-[11px] text-slate-400">
-              Computed times and positions are for planning; local rules, site regulations and the instrument's own safety interlocks take precedence.
-            </p>
           </div>
-          <aside className="w-full space-y-4 lg:w-80" aria-label="Sky controls and readouts">
-            <TimeBar timeZone={timeZone} onSaveTime={mode === 'edit' && onSceneChange ? () => emit({ time: isoUtc(clock.ms) }) : undefined} />
+          <div className={`${over} px-2 lg:mx-2 lg:mb-2 lg:self-end lg:px-0`}>
+            <TimeStrip onSaveTime={mode === 'edit' && onSceneChange ? () => emit({ time: isoUtc(clock.ms) }) : undefined} />
+          </div>
+          <div className={`${over} px-2 lg:mr-2 lg:mt-12 lg:w-80 lg:self-start lg:justify-self-end lg:px-0`}>
             <SelectionCard />
-            <Readout />
-            <Legend onLayersChange={layersChanged} />
-            <SkySummary />
-          </aside>
+          </div>
+          <div className={`${over} flex flex-col gap-1.5 px-2 lg:ml-2 lg:px-0 lg:mt-12 lg:max-h-[calc(100%-8.5rem)] lg:w-80 lg:self-start lg:justify-self-start lg:overflow-y-auto`} aria-label="Sky panels" role="region" data-testid="sky-panels">
+            <FloatPanel id="time" title="Time">
+              <TimeBar timeZone={timeZone} />
+            </FloatPanel>
+            <FloatPanel id="layers" title="Layers">
+              <Legend onLayersChange={layersChanged} />
+            </FloatPanel>
+            <FloatPanel id="pointer" title="Pointer">
+              <Readout />
+            </FloatPanel>
+            <FloatPanel id="summary" title="Above the horizon now">
+              <SkySummary />
+            </FloatPanel>
+          </div>
         </div>
+        <p className="shrink-0 px-2 text-[11px] text-slate-400 lg:truncate">
+          Computed times and positions are for planning; local rules, site regulations and the instrument's own safety interlocks take precedence.
+        </p>
       </div>
     </ViewContext.Provider>
   );
+}
+
+/**
+ * Moves the Observer camera to a new direction and field over ~1 s (shortest way round in azimuth), so a
+ * step or a followed presenter turns the view instead of cutting. Returns a cancel function.
+ */
+function glideCamera(cam: CamState, to: NonNullable<SceneLike['camera']>, invalidate: () => void): () => void {
+  const from = { az: cam.az, alt: cam.alt, fov: cam.fov };
+  const dAz = to.azDeg === undefined ? 0 : ((((to.azDeg - from.az) % 360) + 540) % 360) - 180;
+  const dAlt = to.altDeg === undefined ? 0 : to.altDeg - from.alt;
+  const dFov = to.fovDeg === undefined ? 0 : to.fovDeg - from.fov;
+  if (!dAz && !dAlt && !dFov) return () => undefined;
+  const reduce = typeof matchMedia === 'function' && matchMedia('(prefers-reduced-motion: reduce)').matches;
+  const ms = reduce ? 0 : 1100;
+  const t0 = performance.now();
+  let raf = 0;
+  const tick = () => {
+    const u = ms ? Math.min(1, (performance.now() - t0) / ms) : 1;
+    const e = u < 0.5 ? 4 * u * u * u : 1 - Math.pow(-2 * u + 2, 3) / 2;
+    cam.az = (((from.az + dAz * e) % 360) + 360) % 360;
+    cam.alt = from.alt + dAlt * e;
+    cam.fov = from.fov + dFov * e;
+    invalidate();
+    if (u < 1) raf = requestAnimationFrame(tick);
+  };
+  tick();
+  return () => cancelAnimationFrame(raf);
 }
 
 export default SkyView;

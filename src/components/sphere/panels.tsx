@@ -11,7 +11,7 @@ import { altAzToEnu, altitudeWords, angleDeg, compassWord, formatDeg, formatDms,
 import { bodyName } from './overlay';
 import { useStore } from './store';
 import { CIRCLE_STYLES, dashArray, GRID_STYLES, LEGEND, type CircleKey } from './styles';
-import { formatOffset, formatUtc, formatWall, fromLocalInputValue, RATES, SIDEREAL_DAY_MS, toLocalInputValue } from './time';
+import { formatOffset, formatUtc, formatWall, fromLocalInputValue, SIDEREAL_DAY_MS, toLocalInputValue } from './time';
 
 const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text-slate-100 hover:bg-slate-700 focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400 disabled:opacity-40';
 
@@ -68,8 +68,7 @@ export function Legend({ onLayersChange }: { onLayersChange?: (() => void) | und
   };
   const groups = ['Rings', 'Grids', 'Sky', 'Plan'] as const;
   return (
-    <section aria-labelledby="sky-legend-h" className="space-y-2" data-testid="sky-legend">
-      <h2 id="sky-legend-h" className="text-sm font-bold text-slate-100">Layers</h2>
+    <div className="space-y-2" data-testid="sky-legend">
       {groups.map((g) => (
         <fieldset key={g} className="space-y-1">
           <legend className="text-[11px] uppercase tracking-wide text-slate-400">{g}</legend>
@@ -105,7 +104,7 @@ export function Legend({ onLayersChange }: { onLayersChange?: (() => void) | und
         />
         <output className="w-8 tabular-nums">{layers.limitingMagnitude.toFixed(1)}</output>
       </label>
-    </section>
+    </div>
   );
 }
 
@@ -115,8 +114,6 @@ export function TimeBar({ timeZone, onSaveTime }: { timeZone: string; onSaveTime
   const utcRef = useRef<HTMLSpanElement>(null);
   const lstRef = useRef<HTMLSpanElement>(null);
   const inputRef = useRef<HTMLInputElement>(null);
-  const playing = useStore(store, (s) => s.playing);
-  const rate = useStore(store, (s) => s.rate);
   const selected = useStore(store, (s) => s.selected);
   const [twilights, setTwilights] = useState<engine.EventLike[]>([]);
   const [msg, setMsg] = useState('');
@@ -153,11 +150,6 @@ export function TimeBar({ timeZone, onSaveTime }: { timeZone: string; onSaveTime
   }, [clock, timeZone]);
 
   const step = (ms: number) => clock.setMs(clock.ms + ms);
-  const togglePlay = () => {
-    clock.playing = !clock.playing;
-    store.set({ playing: clock.playing });
-    if (clock.playing) clock.setMs(clock.ms + 1);
-  };
   const loadTwilights = () => {
     const from = new Date(clock.ms);
     setTwilights(engine.twilightEvents(model.site, from, new Date(clock.ms + 2 * 86400000)).slice(0, 12));
@@ -172,8 +164,7 @@ export function TimeBar({ timeZone, onSaveTime }: { timeZone: string; onSaveTime
     } else setMsg(`No ${kind} in the next 48 h`);
   };
   return (
-    <section aria-labelledby="sky-time-h" className="space-y-2" data-testid="sky-time">
-      <h2 id="sky-time-h" className="text-sm font-bold text-slate-100">Time</h2>
+    <div className="space-y-2" data-testid="sky-time">
       <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-xs">
         <dt className="text-slate-400">Site time</dt>
         <dd className="tabular-nums text-slate-100" ref={localRef} data-testid="time-local" />
@@ -206,24 +197,6 @@ export function TimeBar({ timeZone, onSaveTime }: { timeZone: string; onSaveTime
         <button className={btn} onClick={() => step(SIDEREAL_DAY_MS)} aria-label="Forward one sidereal day" data-testid="step-plus-sday">+1 sid. day</button>
       </div>
       <div className="flex flex-wrap items-center gap-1">
-        <button className={btn} onClick={togglePlay} aria-pressed={playing} data-testid="play">{playing ? 'Pause' : 'Play'}</button>
-        <label className="flex items-center gap-1 text-xs text-slate-300">
-          <span>Rate</span>
-          <select
-            className="rounded bg-slate-800 px-1 text-slate-100"
-            value={rate}
-            onChange={(e) => {
-              clock.rate = Number(e.target.value);
-              store.set({ rate: clock.rate });
-            }}
-            data-testid="rate"
-          >
-            {RATES.map((r) => (
-              <option key={r} value={r}>{r === 1 ? 'real time' : r < 3600 ? `${r}× (${r / 60} min/s)` : `${r}× (1 h/s)`}</option>
-            ))}
-          </select>
-        </label>
-        <button className={btn} onClick={() => clock.setMs(Date.now())}>Now</button>
         {onSaveTime && <button className={btn} onClick={onSaveTime}>Use this time in the scene</button>}
       </div>
       <div className="flex flex-wrap items-center gap-1" role="group" aria-label="Jump to events">
@@ -245,7 +218,7 @@ export function TimeBar({ timeZone, onSaveTime }: { timeZone: string; onSaveTime
         </select>
       </div>
       {msg && <p className="text-xs text-amber-300" role="status">{msg}</p>}
-    </section>
+    </div>
   );
 }
 
@@ -264,6 +237,15 @@ export function selectedTarget(model: import('./model').SkyModel, sel: import('.
   return null;
 }
 
+/** Display name of the current selection (for "Vega rises" and the like). */
+export function selectedName(model: import('./model').SkyModel, sel: import('./context').Selection | null): string {
+  if (!sel) return '';
+  if (sel.kind === 'body') return bodyName(sel.body);
+  if (sel.kind === 'star' && model.cat) return model.cat.name[sel.index] ?? model.cat.designation[sel.index] ?? 'The star';
+  if (sel.kind === 'target') return model.targetDefs.find((t) => t.id === sel.id)?.name ?? 'The target';
+  return '';
+}
+
 const FIELDS: [keyof engine.PointReadout | 'raDec' | 'raDecDate' | 'ecl' | 'gal', string][] = [
   ['altDeg', 'Altitude'],
   ['zdDeg', 'Zenith distance'],
@@ -277,8 +259,16 @@ const FIELDS: [keyof engine.PointReadout | 'raDec' | 'raDecDate' | 'ecl' | 'gal'
   ['constellation', 'Constellation'],
 ];
 
+/** Which UT1 − UTC and polar motion the view uses (they shift pointing by up to ~13″). */
+export function earthOrientationNote(s: engine.SiteInput): string {
+  if (s.dut1Sec === undefined && s.xpArcsec === undefined && s.ypArcsec === undefined) return 'Earth orientation: UT1 − UTC and polar motion taken as 0 (up to ~13″ of hour angle).';
+  const sign = (x: number) => (x >= 0 ? '+' : '−') + Math.abs(x).toFixed(3);
+  const src = [s.eopSource, s.eopDate ? `for ${s.eopDate}` : ''].filter(Boolean).join(', ');
+  return `Earth orientation: UT1 − UTC ${sign(s.dut1Sec ?? 0)} s, xp ${sign(s.xpArcsec ?? 0)}″, yp ${sign(s.ypArcsec ?? 0)}″${src ? ` (${src})` : ''}.`;
+}
+
 export function Readout() {
-  const { hud } = useView();
+  const { hud, model } = useView();
   const refs = useRef<Record<string, HTMLElement | null>>({});
   const boxRef = useRef<HTMLDivElement>(null);
   useEffect(() => {
@@ -309,8 +299,7 @@ export function Readout() {
     };
   }, [hud]);
   return (
-    <section aria-labelledby="sky-readout-h" ref={boxRef} data-empty="true" data-testid="sky-readout">
-      <h2 id="sky-readout-h" className="text-sm font-bold text-slate-100">Pointer</h2>
+    <div ref={boxRef} data-empty="true" data-testid="sky-readout">
       <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-xs">
         {FIELDS.map(([k, label]) => (
           <div key={k} className="contents">
@@ -319,8 +308,9 @@ export function Readout() {
           </div>
         ))}
       </dl>
-      <p className="mt-1 text-[11px] text-slate-500">Hover or tap the sky. Altitudes include standard refraction.</p>
-    </section>
+      <p className="mt-1 text-[11px] text-slate-400">Hover or tap the sky. Altitudes include standard refraction.</p>
+      <p className="mt-0.5 text-[11px] text-slate-400" data-testid="sky-eop">{earthOrientationNote(model.site)}</p>
+    </div>
   );
 }
 
@@ -406,7 +396,7 @@ export function SelectionCard() {
         ['Next set', fmt(after('set'))],
         ...extra,
       ];
-      if (selected.kind === 'star') rows.push(['Catalogue', 'BSC5 J2000 place, proper motion not applied (most bright stars move < 1″ a year)']);
+      if (selected.kind === 'star') rows.push(['Proper motion', 'none: the catalogue (BSC5) has no proper motions, so its J2000 place is used at every date (most bright stars move < 1″ a year)']);
       if (ev.note) rows.push(['Events', ev.note]);
       if (inside !== null) rows.push(['Envelope', inside ? 'inside' : `outside: ${breaks.join('; ')}`]);
       if (sunSep !== null) rows.push(['From the Sun', formatDeg(sunSep, 1)]);
@@ -451,7 +441,7 @@ export function twilightState(sunAltDeg: number): string {
   return 'night (astronomical darkness)';
 }
 
-/** The text alternative: what is up, in words. Updated at most twice a second. */
+/** The text alternative ("Above the horizon now"): the sky in words. Updated at most once a second. */
 export function SkySummary() {
   const { model, store, timeZone, clock } = useView();
   const ref = useRef<HTMLDivElement>(null);
@@ -493,9 +483,6 @@ export function SkySummary() {
     [timeZone, ready, showTargets],
   );
   return (
-    <section aria-labelledby="sky-summary-h" className="space-y-1">
-      <h2 id="sky-summary-h" className="text-sm font-bold text-slate-100">What is up</h2>
-      <div ref={ref} aria-live="polite" className="space-y-1 text-xs text-slate-200" data-testid="sky-summary" />
-    </section>
+    <div ref={ref} aria-live="polite" className="space-y-1 text-xs text-slate-200" data-testid="sky-summary" />
   );
 }

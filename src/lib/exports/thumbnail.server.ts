@@ -11,7 +11,7 @@ import { scenes } from '../server/db/schema';
 import { audit } from '../server/audit';
 import { HttpError } from '../server/http';
 import { sceneFor, toSceneOut, writeTx } from '../server/scenes.server';
-import { skyThumbnail, thumbnailEtag, thumbnailKey } from '../thumbnails/render.server';
+import { skyThumbnail, thumbnailEtag, thumbnailKey } from '../server/thumbnails/render.server';
 import { readCapped } from '../imports/upload';
 import { isPng } from '../png';
 import { runCompute } from '../server/compute';
@@ -36,7 +36,7 @@ export async function putThumbnail(db: DbOrTx, user: User, sceneId: string, requ
 
 /**
  * The snapshot an editor saved, or else the sky thumbnail made on the server from the scene (its chart
- * at its time and site; src/lib/thumbnails/). Every scene has one, so the dashboard never meets a 404.
+ * at its time and site; src/lib/server/thumbnails/). Every scene has one, so the dashboard never meets a 404.
  */
 export async function getThumbnail(db: DbOrTx, user: User, sceneId: string, ifNoneMatch: string | null): Promise<Response> {
   const { row } = await sceneFor(db, user, sceneId, 'scene.read');

@@ -1,7 +1,7 @@
 /**
  * The all-sky chart as an SVG string: zenithal equidistant, north up, east LEFT (as seen looking up).
  * One drawing for two uses: the printed handout (`ink: 'print'`, on white paper) and the scene thumbnails
- * (`ink: 'screen'`, the dark sky; rasterised on the server, see src/lib/thumbnails/README.md). Every
+ * (`ink: 'screen'`, the dark sky; rasterised on the server, see src/lib/server/thumbnails/README.md). Every
  * colour and line pattern comes from the palette (src/lib/style/palette.ts).
  *
  * Every mark carries data-alt / data-az so a reader (or a test) can check it against the projection

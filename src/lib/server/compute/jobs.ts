@@ -12,6 +12,7 @@ import { buildHandout } from '../../handout/handout';
 import { readSceneImportBytes } from '../../exports/scene-import';
 import { checkPng } from '../../exports/png-check';
 import type { SceneOut } from '../scenes';
+import { nightData, type NightInput } from '../../sky/night';
 
 export const jobs = {
   /** POST /api/sky/windows: a validated body → the response body. */
@@ -20,6 +21,8 @@ export const jobs = {
   positionsCsv: (input: { scene: SceneOut; at: Date }) => positionsCsv(input.scene, input.at),
   /** export-windows.csv / windows.csv: visibility windows of every target over a span. */
   windowsCsv: (input: { scene: SceneOut; from: Date; to: Date; stepSec?: number }) => windowsCsv(input.scene, input.from, input.to, { stepSec: input.stepSec }),
+  /** GET /api/scenes/:id/night and the night charts: Sun, Moon, per-target samples, windows and best moment over a span ≤ 36 h. */
+  night: (input: NightInput) => nightData(input),
   /** The printable handout's model (chart, events, targets) of a scene. */
   handout: (input: { scene: SceneOut }) => buildHandout(input.scene),
   /** An uploaded thumbnail: declared size bounded, image data inflated with a cap (see png-check.ts). */

@@ -6,10 +6,10 @@
  */
 import { createHash } from 'node:crypto';
 import { Resvg } from '@resvg/resvg-js';
-import type { SceneOut } from '../server/scenes';
-import { buildChart } from '../handout/handout';
-import { chartSvg } from '../handout/chart-svg';
-import { DAYLIGHT, daylightOf } from '../style/palette';
+import type { SceneOut } from '../scenes';
+import { buildChart } from '../../handout/handout';
+import { chartSvg } from '../../handout/chart-svg';
+import { DAYLIGHT, daylightOf } from '../../style/palette';
 
 /** Edge of the square thumbnail, px: 2× the dashboard's 80 CSS px tile, so it stays sharp on a HiDPI screen. */
 export const THUMB_PX = 160;

@@ -4,10 +4,10 @@
  */
 import { Resvg } from '@resvg/resvg-js';
 import { describe, expect, it } from 'vitest';
-import { renderPng, skyThumbnail, THUMB_PX, thumbnailKey, thumbnailSvg } from '../../../src/lib/thumbnails/render.server';
-import { CHART } from '../../../src/lib/handout/handout';
-import { DAYLIGHT, PLAN } from '../../../src/lib/style/palette';
-import { e1Scene } from '../exports/fixtures';
+import { renderPng, skyThumbnail, THUMB_PX, thumbnailKey, thumbnailSvg } from '../../../../src/lib/server/thumbnails/render.server';
+import { CHART } from '../../../../src/lib/handout/handout';
+import { DAYLIGHT, PLAN } from '../../../../src/lib/style/palette';
+import { e1Scene } from '../../exports/fixtures';
 
 const rgb = (hex: string) => [1, 3, 5].map((i) => parseInt(hex.slice(i, i + 2), 16));
 function pixels(svg: string) {

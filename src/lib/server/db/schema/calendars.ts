@@ -1,0 +1,22 @@
+import { sqliteTable, text, integer, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { users } from './accounts';
+import { teams } from './teams';
+
+/**
+ * A team's secret calendar subscription URL (`/api/calendars/<token>.ics`). Only the SHA-256 of the token
+ * is stored; a team has at most one live feed (making a new one replaces it), deleting it revokes the URL.
+ */
+export const calendarFeeds = sqliteTable(
+  'calendar_feeds',
+  {
+    id: text().primaryKey(),
+    teamId: text()
+      .notNull()
+      .references(() => teams.id, { onDelete: 'cascade' }),
+    tokenHash: text().notNull(),
+    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
+    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    lastUsedAt: integer({ mode: 'timestamp_ms' }),
+  },
+  (t) => [uniqueIndex('calendar_feeds_hash_uq').on(t.tokenHash), index('calendar_feeds_team_idx').on(t.teamId)],
+);
