@@ -6,12 +6,12 @@
  * no functions. A job signals a problem of its input by returning it (see `sceneImport`), not by throwing:
  * errors lose their fields on the way back from a thread.
  */
-import { windowsResponse, type WindowsBody } from '../../sky/api';
+import { windowsResponse, type WindowsBody } from '../sky-api';
 import { positionsCsv, windowsCsv } from '../../exports/tables';
 import { buildHandout } from '../../handout/handout';
 import { readSceneImportBytes } from '../../exports/scene-import';
-import { checkPng } from '../../exports/png-check';
-import type { SceneOut } from '../scenes';
+import { checkPng } from '../png-check';
+import type { SceneOut } from '../../contracts/scene';
 import { nightData, type NightInput } from '../../sky/night';
 
 export const jobs = {

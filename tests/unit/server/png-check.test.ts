@@ -5,7 +5,7 @@
  */
 import { deflateSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
-import { checkPng } from '../../../src/lib/exports/png-check';
+import { checkPng } from '../../../src/lib/server/png-check';
 import { pngRawBytes, readPngHeader } from '../../../src/lib/png';
 
 function chunk(type: string, data: Uint8Array): Buffer {

@@ -6,6 +6,7 @@ import { and, desc, eq, inArray, sql, type Placeholder } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/libsql';
 import { nanoid } from 'nanoid';
 import { ByteCache, cacheBudgetBytes, stringBytes } from './caches';
+import { checkPng } from './png-check';
 import type { User } from 'lucia';
 import type { Db, DbOrTx, Tx } from './db/client';
 import { envelopes, memberships, scenes, sceneVersions, sites } from './db/schema';
@@ -14,19 +15,8 @@ import { HttpError, notFound } from './http';
 import { authorize, decide, type Action } from './policy';
 import { preparedReadsOf } from './db/prepared';
 import type { Role } from './db/schema';
-import {
-  applyPatch,
-  defaultCamera,
-  sceneDocSchema,
-  teamEnvelopeSchema,
-  withDefaultLayers,
-  type EnvelopeJson,
-  type TeamEnvelopeJson,
-  type SceneCreateBody,
-  type SceneDoc,
-  type SceneOut,
-  type ScenePatchBody,
-} from './scenes';
+import { applyPatch, defaultCamera, sceneDocSchema, withDefaultLayers, type SceneCreateBody, type SceneDoc, type SceneOut, type ScenePatchBody } from '../contracts/scene';
+import { teamEnvelopeSchema, type EnvelopeJson, type TeamEnvelopeJson } from '../contracts/envelope';
 
 type SceneRow = typeof scenes.$inferSelect;
 
@@ -455,6 +445,11 @@ export async function updateScene(
   action = 'scene.update',
   extraDetail: Record<string, unknown> = {},
 ): Promise<SceneOut> {
+  if (body.thumbnail) {
+    // Bounded in declared and decoded size (≤ 512 KiB in, inflated with a cap: milliseconds).
+    const check = checkPng(body.thumbnail);
+    if (!check.ok) throw new HttpError(400, 'invalid', `thumbnail: ${check.message}`, 'thumbnail');
+  }
   let result: { meta: SceneMeta; doc: SceneDoc; envelope: EnvelopeJson | null };
   try {
     result = await writeTx(db, async (tx) => {
