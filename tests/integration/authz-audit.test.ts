@@ -410,10 +410,9 @@ test('every route file and method under src/pages/api has an entry in the author
 });
 
 const built = new Set(ROUTES.map((r) => r.key));
-for (const key of Object.keys(TABLE).filter((k) => !built.has(k))) {
-  // A row kept for a route the contract promises but no file provides yet.
-  test.skip(`MISSING ROUTE (in the table, no route file): ${key}`, () => {});
-}
+test('every row of the authorisation table has a route file (a promised route that is missing fails here)', () => {
+  expect(Object.keys(TABLE).filter((k) => !built.has(k))).toEqual([]);
+});
 
 for (const route of ROUTES) {
   const entry = TABLE[route.key];

@@ -8,7 +8,7 @@ import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import type { OrbitControls as OrbitControlsImpl } from 'three-stdlib';
 import { useView, type ViewHandles, ViewContext, type Selection } from './context';
-import * as engine from './engine';
+import * as engine from './sky-adapter';
 import { altAzToEnu, enuToWorld, raySphereDirection, SPHERE_RADIUS, worldToEnu } from './geometry';
 import { Axes, Bodies, Envelope, Grid, Ground, Ring, Stars } from './layers';
 import { collectLabels, drawOverlay, type LabelItem } from './overlay';

@@ -6,10 +6,10 @@
  * embed). Mount with client:only="react".
  */
 import { Component, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
-import { DEFAULT_LAYERS, type Layers } from '../../lib/scenes/scene';
+import { DEFAULT_LAYERS, type Layers } from '../../lib/contracts/scene-doc';
 import { type CamState, type CommentAnchor, type PinLike, type UiState, type ViewHandles, ViewContext } from './context';
-import * as engine from './engine';
-import type { EnvelopeLike } from './engine';
+import * as engine from './sky-adapter';
+import type { EnvelopeLike } from './sky-adapter';
 import { formatHours } from './geometry';
 import { SkyModel, type TargetLike } from './model';
 import { FloatPanel } from './FloatPanel';
@@ -21,7 +21,7 @@ import { TimeStrip } from './TimeStrip';
 import SkyCanvas from './SkyCanvas';
 import { composeSnapshot } from './snapshot';
 import { Clock, createStore, useStore } from './store';
-import { formatOffset, formatUtc, formatWall, isoUtc } from './time';
+import { formatOffset, formatUtc, formatWall, isoUtc } from './clock';
 
 /**
  * Keeps the page working when the browser gives no WebGL (blocked, or no GPU and no software fallback):
@@ -48,7 +48,10 @@ class DrawingGuard extends Component<{ children: ReactNode }, { failed: boolean 
 
 export interface SceneLike {
   title: string;
-  site: { name: string; lat: number; lon: number; height?: number; timeZone?: string };
+  site: {
+    name: string; lat: number; lon: number; height?: number; timeZone?: string;
+    earthOrientation?: { dut1: number; xp: number; yp: number; date: string; source: string };
+  };
   /** ISO 8601 UTC. */
   time: string;
   layers?: Layers;
@@ -77,7 +80,11 @@ const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text
 const SUN_UP_ALT = -50 / 60; // upper limb on the horizon (USNO)
 
 function siteInput(s: SceneLike['site']): engine.SiteInput {
-  return { latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0 };
+  const e = s.earthOrientation;
+  return {
+    latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0,
+    ...(e ? { dut1Sec: e.dut1, xpArcsec: e.xp, ypArcsec: e.yp, eopDate: e.date, eopSource: e.source } : {}),
+  };
 }
 
 export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, chrome = 'full', onTimeChange }: SkyViewProps) {
@@ -120,7 +127,7 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
   useEffect(() => {
     model.setSite(siteInput(scene.site));
     hud.invalidate?.();
-  }, [scene.site.lat, scene.site.lon, scene.site.height]);
+  }, [scene.site.lat, scene.site.lon, scene.site.height, scene.site.earthOrientation?.dut1, scene.site.earthOrientation?.xp, scene.site.earthOrientation?.yp]);
   useEffect(() => {
     const ms = Date.parse(scene.time);
     if (Number.isFinite(ms)) clock.setMs(ms);

@@ -2,7 +2,7 @@
  * The IAU constellation containing a position (Delporte 1930 boundaries, CDS VI/42 / VI/49), via
  * astronomy-engine's Constellation(), which precesses the J2000 position to B1875 itself.
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 
 export interface ConstellationResult {
   /** IAU three-letter abbreviation, e.g. "Ori". */

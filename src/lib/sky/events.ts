@@ -11,7 +11,7 @@
  * 10 minutes and each sign change is refined by bisection to < 0.05 s. Two crossings
  * closer together than the step (a grazing target) can be missed.
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 import { RAD } from './math';
 import { H0_STAR_DEG, H0_SUN_DEG, MOON_RADIUS_KM } from './constants';
 import { apparentFromIcrs, skyFrame, type SkyFrame } from './apparent';
@@ -52,7 +52,7 @@ function sampler(site: SiteInput, target: Target): (t: number) => Sample {
       if (target.body === 'sun') h0 = H0_SUN_DEG;
       else if (target.body === 'moon') h0 = H0_STAR_DEG - Math.asin(MOON_RADIUS_KM / bv.distanceKm) * RAD;
     } else {
-      enu = apparentFromIcrs(f, target.raDeg, target.decDeg).enu;
+      enu = apparentFromIcrs(f, target.raDeg, target.decDeg, target.motion).enu;
     }
     const E = enu[0], N = enu[1], U = enu[2];
     return {
