@@ -12,7 +12,7 @@ import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { nightData, sceneNight } from '../../src/lib/sky/night';
 import { visibilityWindows } from '../../src/lib/sky/windows';
-import { windowsStepSec } from '../../src/lib/sky/api';
+import { windowsGridStepSec as windowsStepSec } from '../../src/lib/sky/night';
 import { AltitudeChart } from '../../src/components/night/AltitudeChart';
 
 /** Wall and CPU time (user + system) of f, ms: on the shared machine the CPU figure is the steadier one. */
