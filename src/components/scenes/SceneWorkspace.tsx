@@ -254,7 +254,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
 
   const night = (
     <div className="px-3 pb-6 pt-2" data-testid="night-section">
-    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
       <NightPanel
         source={{ kind: 'scene', id: scene.id }}
         timeZone={scene.site.timeZone ?? 'UTC'}
@@ -279,8 +279,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
       {st.status === 'conflict' && st.theirs && (
         <ConflictDialog mine={scene} theirs={st.theirs} dirty={st.dirty} onKeepMine={() => void saver.keepMine()} onTakeTheirs={() => saver.takeTheirs()} />
       )}
-      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel={canEdit ? 'Editor' : 'Scene panels'} />
-      {night}
+      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel={canEdit ? 'Editor' : 'Scene panels'} sheet={{ label: 'Night', content: night }} />
       {presenting !== null && (
         <Presenter scene={like} startIndex={presenting} onClose={() => setPresenting(null)} broadcastUrl={canEdit ? `/api/scenes/${scene.id}/presenter` : null} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
       )}

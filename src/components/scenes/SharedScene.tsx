@@ -175,7 +175,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
 
   const night = (
     <div className="px-3 pb-6 pt-2" data-testid="night-section">
-    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
       <NightPanel
         source={{ kind: 'shared', token }}
         timeZone={scene.site.timeZone ?? 'UTC'}
@@ -198,8 +198,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
 
   return (
     <>
-      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel="Steps and details" />
-      {night}
+      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel="Steps and details" sheet={{ label: 'Night', content: night }} />
       {following && follow.state && (
         <AudienceStage scene={like} state={follow.state} connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
       )}
