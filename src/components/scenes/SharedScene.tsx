@@ -2,7 +2,7 @@
  * What a share link opens: the scene read-only with the sky filling the page, its steps in a drawer (after
  * the sky on a phone), follow the presenter (the audience's stage), and for reviewer links comments.
  */
-import { useMemo, useState } from 'react';
+import { lazy, Suspense, useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
@@ -16,7 +16,10 @@ import { ExportPanel } from './ExportPanel';
 import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
 import { Markdown } from '../briefing/Markdown';
-import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+import { useComments, type ReviewAccess } from '../review/comments';
+
+/** Only reviewer links show it: a chunk of its own, so a viewer link's first frame does not wait for it. */
+const ReviewPanel = lazy(() => import('../review/ReviewPanel').then((m) => ({ default: m.ReviewPanel })));
 
 function Shared({ token, embed }: { token: string; embed: boolean }) {
   const q = useQuery({
@@ -151,7 +154,11 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
             ))}
           </ol>
         )}
-        {tab === 'review' && reviewer && <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />}
+        {tab === 'review' && reviewer && (
+          <Suspense fallback={<p className="text-sm text-ink-300">Loading comments…</p>}>
+            <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />
+          </Suspense>
+        )}
         {tab === 'about' && (
           <div className="flex flex-col gap-3">
             {scene.description ? <Markdown source={scene.description} className="text-sm text-ink-300" /> : <p className="text-sm text-ink-300">No description.</p>}
