@@ -297,6 +297,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/scenes/[id]/targets.vot': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/windows.csv': { expect: team('viewer', 200) },
   'GET /api/scenes/[id]/night': { expect: team('viewer', 200) },
+  'GET /api/scenes/[id]/night.svg': { expect: team('viewer', 200) },
 
   // share links: the token is the credential, whoever holds it (account or not) gets the link's role
   'GET /api/shared/[token]': { expect: ALL(200) },
@@ -315,6 +316,7 @@ const TABLE: Record<string, Entry> = {
   'GET /api/shared/[token]/export.vot': { expect: ALL(200) },
   'GET /api/shared/[token]/export-windows.csv': { expect: ALL(200) },
   'GET /api/shared/[token]/night': { expect: ALL(200) },
+  'GET /api/shared/[token]/night.svg': { expect: ALL(200) },
 
   // calendars: the scene's night for members and link holders; the team's secret subscription URL (editor+)
   'GET /api/scenes/[id]/calendar.ics': { expect: team('viewer', 200) },
@@ -408,10 +410,9 @@ test('every route file and method under src/pages/api has an entry in the author
 });
 
 const built = new Set(ROUTES.map((r) => r.key));
-for (const key of Object.keys(TABLE).filter((k) => !built.has(k))) {
-  // A row kept for a route the contract promises but no file provides yet.
-  test.skip(`MISSING ROUTE (in the table, no route file): ${key}`, () => {});
-}
+test('every row of the authorisation table has a route file (a promised route that is missing fails here)', () => {
+  expect(Object.keys(TABLE).filter((k) => !built.has(k))).toEqual([]);
+});
 
 for (const route of ROUTES) {
   const entry = TABLE[route.key];

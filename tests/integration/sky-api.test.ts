@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startServer, type TestServer } from './helpers/server';
 import { ApiClient } from './helpers/client';
+import stars from '../reference/stars.json';
+import eop from '../reference/earth-orientation.json';
+import motion from '../reference/motion.json';
 
 let s: TestServer;
 let c: ApiClient;
@@ -42,6 +45,14 @@ describe('GET /api/sky/observe', () => {
     [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 400, dec: 10 }, 'ra'],
     [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 10, dec: -95 }, 'dec'],
     [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', body: 'vulcan' }, 'body'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 10, dec: 10, dut1: 1.2 }, 'dut1'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 10, dec: 10, xp: 'north' }, 'xp'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 10, dec: 10, yp: 3 }, 'yp'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 10, dec: 10, pmra: 30000 }, 'pmra'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 10, dec: 10, parallax: -1 }, 'parallax'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', ra: 10, dec: 10, epoch: 'J2000' }, 'epoch'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', body: 'mars', pmdec: 5 }, 'pmdec'],
+    [{ lat: 10, lon: 0, time: '2024-01-15T22:00:00Z', body: 'mars', radialVelocity: 5 }, 'radialVelocity'],
   ])('400 naming the field for %o', async (q, field) => {
     const r = await c.json('GET', `/api/sky/observe?${qs(q)}`);
     expect(r.status).toBe(400);
@@ -76,6 +87,36 @@ describe('GET /api/sky/events', () => {
   });
 });
 
+describe('GET /api/sky/observe: Earth orientation and space motion', () => {
+  const arcsec = (a: { azimuth: number; altitude: number }, az: number, alt: number) =>
+    Math.hypot(a.altitude - alt, ((a.azimuth - az + 540) % 360 - 180) * Math.cos((alt * Math.PI) / 180)) * 3600;
+
+  it('dut1, xp, yp: within 0.05″ of ERFA atco13 with the same values (tests/reference/earth_orientation.py), echoed back', async () => {
+    for (const k of eop.cases) {
+      const q = { lat: k.site.lat, lon: k.site.lon, height: k.site.height, time: k.time, ra: k.ra, dec: k.dec, refraction: 'none', dut1: k.dut1, xp: k.xp, yp: k.yp };
+      const r = await c.json('GET', `/api/sky/observe?${qs(q)}`);
+      expect(r.status).toBe(200);
+      expect(arcsec(r.data, k.none.az, k.none.alt)).toBeLessThan(0.05);
+      expect(r.data.earthOrientation).toEqual({ dut1: k.dut1, xp: k.xp, yp: k.yp });
+    }
+    const k = eop.cases[0]!;
+    const zero = await c.json('GET', `/api/sky/observe?${qs({ lat: k.site.lat, lon: k.site.lon, time: k.time, ra: k.ra, dec: k.dec, refraction: 'none' })}`);
+    expect(arcsec(zero.data, k.noneWithZeros.az, k.noneWithZeros.alt)).toBeLessThan(0.05);
+    expect(zero.data.earthOrientation).toEqual({ dut1: 0, xp: 0, yp: 0 });
+  });
+
+  it('epoch, pmra, pmdec, parallax, radialVelocity: within 0.5″ of ERFA pmsafe + atco13 after 50 years (tests/reference/motion.py)', async () => {
+    for (const m of motion.cases) {
+      for (const o of m.observed) {
+        const q = { lat: o.site.lat, lon: o.site.lon, height: o.site.height, time: m.time, ra: m.ra, dec: m.dec, refraction: 'none', epoch: 2000, pmra: m.pmra, pmdec: m.pmdec, parallax: m.parallax, radialVelocity: m.rv };
+        const r = await c.json('GET', `/api/sky/observe?${qs(q)}`);
+        expect(r.status).toBe(200);
+        expect(arcsec(r.data, o.az, o.alt), m.name).toBeLessThan(0.5);
+      }
+    }
+  });
+});
+
 describe('POST /api/sky/windows', () => {
   const body = {
     site: { lat: 0, lon: 0, height: 0 },
@@ -94,6 +135,31 @@ describe('POST /api/sky/windows', () => {
     expect(star.reasons.length).toBe(star.windows.length);
     for (const w of star.windows) expect(Date.parse(w.end)).toBeGreaterThan(Date.parse(w.start));
     expect(star.reasons).toContain('minAltitude');
+  });
+
+  it("the star's window edges are where it crosses the 30° floor, within 2 s of ERFA atco13 (tests/reference/stars.py, case windows-equator-star)", async () => {
+    const ref = stars.cases.find((c) => c.id === 'windows-equator-star')!.instants;
+    const setsAt = Date.parse(ref.find((x) => !x.rising)!.time), risesAt = Date.parse(ref.find((x) => x.rising)!.time);
+    const r = await c.json('POST', '/api/sky/windows', body, { origin: s.url });
+    expect(r.status).toBe(200);
+    const w = r.data.targets[0].windows.map((x: { start: string; end: string }) => [Date.parse(x.start), Date.parse(x.end)]);
+    // Span 2024-03-01 00:00 → 03-02 00:00: up at the start until it sinks below 30°, and again from its rise above 30° to the end.
+    expect(w).toHaveLength(2);
+    expect(w[0][0]).toBe(Date.parse(body.from));
+    expect(Math.abs(w[0][1] - setsAt)).toBeLessThan(2000);
+    expect(Math.abs(w[1][0] - risesAt)).toBeLessThan(2000);
+    expect(w[1][1]).toBe(Date.parse(body.to));
+  });
+
+  it('site.dut1 moves the edges by UT1 − UTC (a star keeps sidereal time: +0.9 s of UT1 → 0.9 s earlier in UTC; edges are refined to 0.5 s)', async () => {
+    const r0 = await c.json('POST', '/api/sky/windows', body, { origin: s.url });
+    const r1 = await c.json('POST', '/api/sky/windows', { ...body, site: { ...body.site, dut1: 0.9, xp: 0.2, yp: 0.3 } }, { origin: s.url });
+    expect(r1.status).toBe(200);
+    const e0 = Date.parse(r0.data.targets[0].windows[1].start), e1 = Date.parse(r1.data.targets[0].windows[1].start);
+    expect(Math.abs(e0 - e1 - 900)).toBeLessThan(600);
+    const bad = await c.json('POST', '/api/sky/windows', { ...body, site: { ...body.site, dut1: 1 } }, { origin: s.url });
+    expect(bad.status).toBe(400);
+    expect(bad.data.error.field).toBe('site.dut1');
   });
 
   it('refuses more than 2,000 targets, bad JSON and bad fields', async () => {

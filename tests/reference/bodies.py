@@ -36,6 +36,12 @@ SITES = {
     'south': dict(lat=-30.2446, lon=-70.7494, height=2200.0),
     'high': dict(lat=19.8207, lon=-155.4681, height=4207.0),
 }
+# Sites only used for the day-length events (events.test.ts).
+DAY_SITES = {
+    'lat40': dict(lat=40.0, lon=0.0, height=0.0),
+    'equator': dict(lat=0.0, lon=0.0, height=0.0),
+}
+DAY_CASES = [('lat40', '2024-06-20T00:00:00Z'), ('equator', '2024-03-20T00:00:00Z')]
 STANDARD = dict(phpa=1013.25, tc=10.0, rh=0.5, wl=0.55)
 
 
@@ -189,9 +195,11 @@ def main():
         for day in EVENT_DAYS:
             for b in ('sun', 'moon'):
                 ev.append({'site': sname, 'from': day, 'hours': 48, 'body': b, 'events': events(b, site, day, 48)})
+    for sname, day in DAY_CASES:
+        ev.append({'site': sname, 'from': day, 'hours': 24, 'body': 'sun', 'events': events('sun', DAY_SITES[sname], day, 24)})
     json.dump({
         'source': 'tests/reference/bodies.py: JPL DE405 (casacore-data-jpl-de405) + ERFA ' + erfa.__version__ + ' (apco13, ld, ab, atioq, pnm06a)',
-        'sites': SITES, 'standardRefraction': STANDARD, 'topocentric': topo, 'geocentric': geo, 'events': ev,
+        'sites': {**SITES, **DAY_SITES}, 'standardRefraction': STANDARD, 'topocentric': topo, 'geocentric': geo, 'events': ev,
     }, sys.stdout, indent=1)
 
 

@@ -25,6 +25,8 @@ import { StepsEditor } from '../briefing/StepsEditor';
 import { AudienceStage, FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
 import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+import { NightPanel } from '../night/NightPanel';
+import { chartComments, nightRevision } from '../night/mount';
 
 type Tab = 'scene' | 'steps' | 'review' | 'share' | 'history';
 const RANK: Record<Role, number> = { viewer: 0, reviewer: 1, editor: 2, owner: 3 };
@@ -101,6 +103,14 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
   const followedStep = following && follow.state ? scene.steps[follow.state.stepIndex] : undefined;
   const viewScene: SceneLike = following && follow.state ? sceneAtStep(like, followedStep, follow.state.time) : shownStep ? sceneAtStep(like, scene.steps.find((s) => s.id === shownStep)) : like;
   const viewEditable = canEdit && !shownStep && !following;
+  // The view's instant shared by the sphere and the night charts (null: the scene's or the step's time).
+  const [viewMs, setViewMs] = useState<number | null>(null);
+  useEffect(() => setViewMs(null), [viewScene.time]);
+  const skyScene = viewMs !== null ? { ...viewScene, time: new Date(viewMs).toISOString() } : viewScene;
+  const onNightCursor = (t: number, done: boolean) => {
+    setViewMs(t);
+    if (done && viewEditable) edit({ time: new Date(Math.round(t / 1000) * 1000).toISOString().replace('.000Z', 'Z') });
+  };
 
   const onPick = (p: PickedPoint) => {
     if (pinDraft) {
@@ -199,7 +209,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
         </p>
       )}
       <div className="min-h-0 flex-1">
-        <Sky scene={viewScene} edit={viewEditable} onChange={onViewChange} comments={markers} onPick={onPick} onSnapshot={canEdit ? setSnap : undefined} />
+        <Sky scene={skyScene} edit={viewEditable} onChange={onViewChange} comments={markers} onPick={onPick} onSnapshot={canEdit ? setSnap : undefined} onTimeChange={setViewMs} />
       </div>
     </div>
   );
@@ -240,12 +250,35 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
     </>
   );
 
+  const night = (
+    <div className="px-3 pb-6 pt-2" data-testid="night-section">
+    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <NightPanel
+        source={{ kind: 'scene', id: scene.id }}
+        timeZone={scene.site.timeZone ?? 'UTC'}
+        revision={nightRevision(scene)}
+        cursor={viewMs ?? Date.parse(viewScene.time)}
+        onCursor={onNightCursor}
+        comments={chartComments(comments.data ?? [])}
+        onPickComment={
+          canComment
+            ? (a) => {
+                setAnchor(a);
+                setTab('review');
+              }
+            : undefined
+        }
+      />
+    </Section>    </div>
+  );
+
   return (
     <>
       {st.status === 'conflict' && st.theirs && (
         <ConflictDialog mine={scene} theirs={st.theirs} dirty={st.dirty} onKeepMine={() => void saver.keepMine()} onTakeTheirs={() => saver.takeTheirs()} />
       )}
       <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel={canEdit ? 'Editor' : 'Scene panels'} />
+      {night}
       {presenting !== null && (
         <Presenter scene={like} startIndex={presenting} onClose={() => setPresenting(null)} broadcastUrl={canEdit ? `/api/scenes/${scene.id}/presenter` : null} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
       )}

@@ -17,9 +17,12 @@ import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
 import { Markdown } from '../briefing/Markdown';
 import { useComments, type ReviewAccess } from '../review/comments';
+import { chartComments, nightRevision } from '../night/mount';
 
 /** Only reviewer links show it: a chunk of its own, so a viewer link's first frame does not wait for it. */
 const ReviewPanel = lazy(() => import('../review/ReviewPanel').then((m) => ({ default: m.ReviewPanel })));
+/** Below the sky, and with its charting code: a chunk of its own, loaded while the sky draws. */
+const NightPanel = lazy(() => import('../night/NightPanel').then((m) => ({ default: m.NightPanel })));
 
 function Shared({ token, embed }: { token: string; embed: boolean }) {
   const q = useQuery({
@@ -32,6 +35,8 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const [stepIdx, setStepIdx] = useState<number | null>(null);
   const [picking, setPicking] = useState(false);
   const [anchor, setAnchor] = useState<Anchor | null>(null);
+  // The view's instant shared by the sphere and the night charts, for the scene/step time it was set against.
+  const [view, setView] = useState<{ ms: number; base: string } | null>(null);
   const [tab, setTab] = useState<'steps' | 'review' | 'about'>(() => (typeof location !== 'undefined' && location.hash.startsWith('#comment-') ? 'review' : 'steps'));
   const reviewer = q.data?.role === 'reviewer' && !embed;
   const access: ReviewAccess = { kind: 'guest', token, canComment: true };
@@ -52,6 +57,9 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const idx = following && follow.state ? follow.state.stepIndex : stepIdx;
   const step = idx !== null ? scene.steps[idx] : undefined;
   const shown = following && follow.state ? sceneAtStep(like, step, follow.state.time) : sceneAtStep(like, step);
+  const viewMs = view && view.base === shown.time ? view.ms : null;
+  const skyScene = viewMs !== null ? { ...shown, time: new Date(viewMs).toISOString() } : shown;
+  const setViewMs = (ms: number) => setView({ ms, base: shown.time });
   const onPick = (p: PickedPoint) => {
     if (!picking) return;
     setAnchor(anchorFromPick(p));
@@ -110,7 +118,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
         </div>
       )}
       <div className="min-h-0 flex-1">
-        <Sky scene={shown} comments={markers} onPick={onPick} />
+        <Sky scene={skyScene} comments={markers} onPick={onPick} onTimeChange={setViewMs} />
       </div>
     </div>
   );
@@ -171,9 +179,35 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
     </>
   );
 
+  const night = (
+    <div className="px-3 pb-6 pt-2" data-testid="night-section">
+    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <Suspense fallback={<p className="text-sm text-ink-300">Loading the night…</p>}>
+      <NightPanel
+        source={{ kind: 'shared', token }}
+        timeZone={scene.site.timeZone ?? 'UTC'}
+        revision={nightRevision(scene)}
+        cursor={viewMs ?? Date.parse(shown.time)}
+        onCursor={(t) => setViewMs(t)}
+        comments={reviewer ? chartComments(comments.data ?? []) : []}
+        onPickComment={
+          reviewer
+            ? (a) => {
+                setAnchor(a);
+                setTab('review');
+              }
+            : undefined
+        }
+      />
+      </Suspense>
+    </Section>
+    </div>
+  );
+
   return (
     <>
       <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel="Steps and details" />
+      {night}
       {following && follow.state && (
         <AudienceStage scene={like} state={follow.state} connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
       )}

@@ -5,7 +5,7 @@ import type { CommentAnchor } from '../sphere/context';
 
 export type PickedPoint = { ra: number; dec: number; azimuth: number; altitude: number };
 
-export function Sky(props: { scene: SceneLike; edit?: boolean; onChange?: (s: SceneLike) => void; comments?: CommentAnchor[]; onPick?: (p: PickedPoint) => void; onSnapshot?: (url: string) => void; chrome?: 'full' | 'stage' }) {
+export function Sky(props: { scene: SceneLike; edit?: boolean; onChange?: (s: SceneLike) => void; comments?: CommentAnchor[]; onPick?: (p: PickedPoint) => void; onSnapshot?: (url: string) => void; chrome?: 'full' | 'stage'; onTimeChange?: (ms: number) => void }) {
   return (
     <SkyView
       scene={props.scene as never}
@@ -15,6 +15,7 @@ export function Sky(props: { scene: SceneLike; edit?: boolean; onChange?: (s: Sc
       onPickPoint={props.onPick}
       onSnapshot={props.onSnapshot}
       chrome={props.chrome}
+      onTimeChange={props.onTimeChange}
     />
   );
 }

@@ -48,7 +48,10 @@ class DrawingGuard extends Component<{ children: ReactNode }, { failed: boolean 
 
 export interface SceneLike {
   title: string;
-  site: { name: string; lat: number; lon: number; height?: number; timeZone?: string };
+  site: {
+    name: string; lat: number; lon: number; height?: number; timeZone?: string;
+    earthOrientation?: { dut1: number; xp: number; yp: number; date: string; source: string };
+  };
   /** ISO 8601 UTC. */
   time: string;
   layers?: Layers;
@@ -68,6 +71,8 @@ export interface SkyViewProps {
   onSnapshot?: (dataUrl: string) => void;
   /** `full`: the sky with its panels and time bar (default); `stage`: the sky alone (presenter, audience). */
   chrome?: 'full' | 'stage';
+  /** The view's instant as it moves (time bar, playing, steps), at most five times a second: keeps the night chart's cursor in step. */
+  onTimeChange?: (ms: number) => void;
 }
 
 const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text-slate-100 hover:bg-slate-700 focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400';
@@ -75,10 +80,14 @@ const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text
 const SUN_UP_ALT = -50 / 60; // upper limb on the horizon (USNO)
 
 function siteInput(s: SceneLike['site']): engine.SiteInput {
-  return { latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0 };
+  const e = s.earthOrientation;
+  return {
+    latDeg: s.lat, lonDeg: s.lon, heightM: s.height ?? 0,
+    ...(e ? { dut1Sec: e.dut1, xpArcsec: e.xp, ypArcsec: e.yp, eopDate: e.date, eopSource: e.source } : {}),
+  };
 }
 
-export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, chrome = 'full' }: SkyViewProps) {
+export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickPoint, onSnapshot, chrome = 'full', onTimeChange }: SkyViewProps) {
   const timeZone = scene.site.timeZone ?? 'UTC';
   const handles = useMemo<ViewHandles>(() => {
     const ms = Date.parse(scene.time);
@@ -118,7 +127,7 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
   useEffect(() => {
     model.setSite(siteInput(scene.site));
     hud.invalidate?.();
-  }, [scene.site.lat, scene.site.lon, scene.site.height]);
+  }, [scene.site.lat, scene.site.lon, scene.site.height, scene.site.earthOrientation?.dut1, scene.site.earthOrientation?.xp, scene.site.earthOrientation?.yp]);
   useEffect(() => {
     const ms = Date.parse(scene.time);
     if (Number.isFinite(ms)) clock.setMs(ms);
@@ -145,6 +154,23 @@ export function SkyView({ scene, mode = 'view', onSceneChange, comments, onPickP
     store.set({ pins: scene.pins ?? [] });
     hud.invalidate?.();
   }, [scene.envelope, scene.targets, scene.pins]);
+  const timeListener = useRef(onTimeChange);
+  timeListener.current = onTimeChange;
+  useEffect(() => {
+    // at most five times a second, and once more after the last change
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    const off = clock.subscribe(() => {
+      if (timer || !timeListener.current) return;
+      timer = setTimeout(() => {
+        timer = null;
+        timeListener.current?.(clock.ms);
+      }, 200);
+    });
+    return () => {
+      off();
+      if (timer) clearTimeout(timer);
+    };
+  }, []);
   useEffect(() => {
     store.set({ comments: comments ?? [] });
     hud.invalidate?.();

@@ -5,7 +5,13 @@
 import * as sky from '../../lib/sky';
 import { altAzToEnu, enuToAltAz, lonLatFromUnit, mat3MulVec, mat3TMulVec } from './geometry';
 
-export type SiteInput = { latDeg: number; lonDeg: number; heightM: number };
+/** A site for the engine; the Earth orientation values (UT1 − UTC, polar motion) are optional, with their date and source for display. */
+export type SiteInput = {
+  latDeg: number; lonDeg: number; heightM: number;
+  dut1Sec?: number; xpArcsec?: number; ypArcsec?: number; eopDate?: string; eopSource?: string;
+};
+/** Space motion of a custom target (ICRS place at `epoch`). */
+export type MotionLike = { epoch?: number; pmra?: number; pmdec?: number; parallax?: number; radialVelocity?: number };
 
 export type SkyFrameLike = sky.SkyFrame;
 
@@ -217,7 +223,7 @@ export function checkEnvelope(env: EnvelopeLike, p: PointingLike, ctx: { sun: { 
 }
 
 /** Apparent place of a catalogue position or body (the engine's observe()). */
-export function observe(site: SiteInput, date: Date, target: { raDeg: number; decDeg: number } | { body: string }) {
+export function observe(site: SiteInput, date: Date, target: { raDeg: number; decDeg: number; motion?: MotionLike } | { body: string }) {
   return sky.observe(site, date, target as any);
 }
 

@@ -20,7 +20,7 @@ export interface SceneSiteLike {
 export type TargetLike =
   | { id: string; kind: 'star'; name: string; hr: number }
   | { id: string; kind: 'body'; name: string; body: string }
-  | { id: string; kind: 'custom'; name: string; ra: number; dec: number };
+  | { id: string; kind: 'custom'; name: string; ra: number; dec: number; epoch?: number; pmra?: number; pmdec?: number; parallax?: number; radialVelocity?: number };
 
 export interface TargetState {
   id: string;
@@ -229,7 +229,11 @@ export class SkyModel {
           raDeg = t.ra;
           decDeg = t.dec;
         }
-        if (t.kind === 'custom' || magnitude !== null) place = engine.observe(this.site, date, { raDeg, decDeg });
+        if (t.kind === 'custom') {
+          const { epoch, pmra, pmdec, parallax, radialVelocity } = t;
+          const motion = pmra || pmdec || parallax || radialVelocity ? { epoch, pmra, pmdec, parallax, radialVelocity } : undefined;
+          place = engine.observe(this.site, date, { raDeg, decDeg, motion });
+        } else if (magnitude !== null) place = engine.observe(this.site, date, { raDeg, decDeg });
       }
       if (!place) place = { azDeg: 0, altDeg: -90, haHours: 0, decOfDateDeg: 0 };
       const { azDeg, altDeg } = place;

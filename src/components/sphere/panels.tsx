@@ -259,8 +259,16 @@ const FIELDS: [keyof engine.PointReadout | 'raDec' | 'raDecDate' | 'ecl' | 'gal'
   ['constellation', 'Constellation'],
 ];
 
+/** Which UT1 − UTC and polar motion the view uses (they shift pointing by up to ~13″). */
+export function earthOrientationNote(s: engine.SiteInput): string {
+  if (s.dut1Sec === undefined && s.xpArcsec === undefined && s.ypArcsec === undefined) return 'Earth orientation: UT1 − UTC and polar motion taken as 0 (up to ~13″ of hour angle).';
+  const sign = (x: number) => (x >= 0 ? '+' : '−') + Math.abs(x).toFixed(3);
+  const src = [s.eopSource, s.eopDate ? `for ${s.eopDate}` : ''].filter(Boolean).join(', ');
+  return `Earth orientation: UT1 − UTC ${sign(s.dut1Sec ?? 0)} s, xp ${sign(s.xpArcsec ?? 0)}″, yp ${sign(s.ypArcsec ?? 0)}″${src ? ` (${src})` : ''}.`;
+}
+
 export function Readout() {
-  const { hud } = useView();
+  const { hud, model } = useView();
   const refs = useRef<Record<string, HTMLElement | null>>({});
   const boxRef = useRef<HTMLDivElement>(null);
   useEffect(() => {
@@ -301,6 +309,7 @@ export function Readout() {
         ))}
       </dl>
       <p className="mt-1 text-[11px] text-slate-400">Hover or tap the sky. Altitudes include standard refraction.</p>
+      <p className="mt-0.5 text-[11px] text-slate-400" data-testid="sky-eop">{earthOrientationNote(model.site)}</p>
     </div>
   );
 }
@@ -387,7 +396,7 @@ export function SelectionCard() {
         ['Next set', fmt(after('set'))],
         ...extra,
       ];
-      if (selected.kind === 'star') rows.push(['Catalogue', 'BSC5 J2000 place, proper motion not applied (most bright stars move < 1″ a year)']);
+      if (selected.kind === 'star') rows.push(['Proper motion', 'none: the catalogue (BSC5) has no proper motions, so its J2000 place is used at every date (most bright stars move < 1″ a year)']);
       if (ev.note) rows.push(['Events', ev.note]);
       if (inside !== null) rows.push(['Envelope', inside ? 'inside' : `outside: ${breaks.join('; ')}`]);
       if (sunSep !== null) rows.push(['From the Sun', formatDeg(sunSep, 1)]);

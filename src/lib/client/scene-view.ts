@@ -68,6 +68,7 @@ export const MIN_POINTS: Record<Pin['kind'], number> = { label: 1, arrow: 2, arc
 
 export function describeAnchor(a: Anchor | null | undefined): string {
   if (!a) return '';
+  if ('chart' in a) return `${a.target} at ${a.time.slice(11, 16)} UTC on the altitude chart`;
   if ('ra' in a) return `RA ${a.ra.toFixed(2)}°, Dec ${a.dec >= 0 ? '+' : ''}${a.dec.toFixed(2)}°`;
   return `Az ${a.azimuth.toFixed(1)}°, Alt ${a.altitude.toFixed(1)}°`;
 }
@@ -76,7 +77,9 @@ export function describeAnchor(a: Anchor | null | undefined): string {
 export function commentMarkers(comments: CommentOut[]) {
   return comments
     .filter((c) => !c.parentId && c.anchor)
-    .map((c, i) => ({ id: c.id, label: `#${i + 1} ${c.author.name}`, resolved: c.resolved, ...(c.anchor as Anchor) }));
+    .map((c, i) => ({ c, i }))
+    .filter(({ c }) => !('chart' in (c.anchor as Anchor)))
+    .map(({ c, i }) => ({ id: c.id, label: `#${i + 1} ${c.author.name}`, resolved: c.resolved, ...(c.anchor as Exclude<Anchor, { chart: 'altitude' }>) }));
 }
 
 /** Threads: top-level comments in time order, each with its replies. */

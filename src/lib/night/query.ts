@@ -34,7 +34,7 @@ const bodyList = z
   });
 
 export const nightQuerySchema = z
-  .object({ from: isoUtc.optional(), to: isoUtc.optional(), step: stepMinutes, bodies: bodyList })
+  .object({ from: isoUtc.optional(), to: isoUtc.optional(), at: isoUtc.optional(), step: stepMinutes, bodies: bodyList })
   .superRefine((q, ctx) => {
     if (q.from && q.to) {
       const span = Date.parse(q.to) - Date.parse(q.from);
@@ -53,13 +53,13 @@ export interface NightScene {
 
 /**
  * The span asked for: both ends given → as given; one end → 12 h from/to it (at most 36 h);
- * neither → the scene's night (sunset to sunrise around the scene time).
+ * neither → the night (sunset to sunrise) around `at`, by default the scene time.
  */
 export function nightSpan(scene: NightScene, q: NightQuery): { from: number; to: number } {
   if (q.from && q.to) return { from: Date.parse(q.from), to: Date.parse(q.to) };
   if (q.from) return { from: Date.parse(q.from), to: Date.parse(q.from) + 12 * 3600000 };
   if (q.to) return { from: Date.parse(q.to) - 12 * 3600000, to: Date.parse(q.to) };
-  return sceneNight(scene.site, new Date(scene.time));
+  return sceneNight(scene.site, new Date(q.at ?? scene.time));
 }
 
 /** Scene targets as night targets (catalogue stars resolved, proper motion applied at mid-span). */

@@ -27,12 +27,26 @@ export const timeZone = z.string().min(1).max(64).refine((tz) => {
   return true;
 }, 'must be an IANA time zone such as Europe/Madrid');
 
+/**
+ * IERS Earth orientation for pointing: UT1 − UTC (s), polar motion xp, yp (″), the date they apply to and
+ * where they came from (e.g. "IERS Bulletin A 2026-12-03"). Optional; without it all three are zero.
+ */
+export const earthOrientationSchema = z.object({
+  dut1: z.number().gt(-1, 'UT1 − UTC must be within ±1 s').lt(1, 'UT1 − UTC must be within ±1 s'),
+  xp: z.number().min(-2, 'polar motion must be within ±2″').max(2, 'polar motion must be within ±2″'),
+  yp: z.number().min(-2, 'polar motion must be within ±2″').max(2, 'polar motion must be within ±2″'),
+  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date such as 2026-12-03'),
+  source: z.string().trim().min(1).max(200),
+});
+export type EarthOrientation = z.infer<typeof earthOrientationSchema>;
+
 export const siteSchema = z.object({
   name: z.string().trim().min(1).max(120),
   lat: z.number().min(-90).max(90),
   lon: z.number().min(-180).max(180),
   height: z.number().min(-500).max(9000).default(0),
   timeZone: timeZone.default('UTC'),
+  earthOrientation: earthOrientationSchema.optional(),
 });
 export type Site = z.infer<typeof siteSchema>;
 
@@ -83,6 +97,9 @@ export const targetSchema = z.discriminatedUnion('kind', [
     /** Proper motion, mas/yr (μα* = μα cos δ). */
     pmra: z.number().min(-20000).max(20000).optional(),
     pmdec: z.number().min(-20000).max(20000).optional(),
+    /** Parallax, mas; radial velocity, km/s. */
+    parallax: z.number().min(0).max(1000).optional(),
+    radialVelocity: z.number().min(-3000).max(3000).optional(),
     notes: z.string().max(2000).optional(),
   }),
 ]);

@@ -272,6 +272,8 @@ export function mergeEnvelope(current: TeamEnvelopeJson, patch: Record<string, u
 export const anchorSchema = z.union([
   z.object({ ra: z.number().min(0).lt(360), dec: z.number().min(-90).max(90) }).strict(),
   z.object({ azimuth: z.number().min(0).max(360), altitude: z.number().min(-90).max(90) }).strict(),
+  // a point of the altitude-over-time chart: a target (by name) at an instant
+  z.object({ chart: z.literal('altitude'), target: z.string().trim().min(1).max(200), time: isoUtc }).strict(),
 ]);
 export type Anchor = z.infer<typeof anchorSchema>;
 

@@ -5,7 +5,8 @@
  */
 import { z } from 'zod';
 import { BODY_NAMES, type BodyName } from './bodies';
-import { observe } from './observe';
+import { observe, type Target } from './observe';
+import { hasMotion, type SpaceMotion } from './motion';
 import { skyEvents } from './events';
 import { visibilityWindows, type WindowTarget } from './windows';
 import { envelopeSchema } from './envelope';
@@ -49,20 +50,47 @@ const HEIGHT = 'must be between -500 and 10000 m';
 const RA = 'must be between 0 and 360 degrees';
 const DEC = 'must be between -90 and 90 degrees';
 
+const DUT1 = 'must be UT1 − UTC in seconds, between -1 and 1 (exclusive)';
+const POLAR = 'must be polar motion in arcseconds, between -2 and 2';
+const EPOCH = 'must be a Julian year between 1000 and 3000';
+const PM = 'must be mas/yr, between -20000 and 20000';
+const PLX = 'must be mas, between 0 and 1000';
+const RV = 'must be km/s, between -3000 and 3000';
+
+/** Earth orientation (IERS): UT1 − UTC and polar motion; defaults zero. */
+const eopQuery = {
+  dut1: qNum(-0.999999, 0.999999, DUT1).optional(),
+  xp: qNum(-2, 2, POLAR).optional(),
+  yp: qNum(-2, 2, POLAR).optional(),
+};
 const siteQuery = {
   lat: qNum(-90, 90, LAT),
   lon: qNum(-180, 360, LON),
   height: qNum(-500, 10000, HEIGHT).optional().default(0),
+  ...eopQuery,
+};
+/** Space motion of an ra/dec target (ICRS at `epoch`). */
+const MOTION_KEYS = ['epoch', 'pmra', 'pmdec', 'parallax', 'radialVelocity'] as const;
+const motionQuery = {
+  epoch: qNum(1000, 3000, EPOCH).optional(),
+  pmra: qNum(-20000, 20000, PM).optional(),
+  pmdec: qNum(-20000, 20000, PM).optional(),
+  parallax: qNum(0, 1000, PLX).optional(),
+  radialVelocity: qNum(-3000, 3000, RV).optional(),
 };
 const targetQuery = {
   ra: qNum(0, 360, RA).optional(),
   dec: qNum(-90, 90, DEC).optional(),
   body: z.preprocess((v) => (v === '' ? undefined : typeof v === 'string' ? v.toLowerCase() : v), bodyEnum.optional()),
+  ...motionQuery,
 };
+type MotionFields = Partial<Record<(typeof MOTION_KEYS)[number], number>>;
 
-function checkTarget(v: { ra?: number; dec?: number; body?: BodyName }, ctx: z.RefinementCtx) {
+function checkTarget(v: { ra?: number; dec?: number; body?: BodyName } & MotionFields, ctx: z.RefinementCtx) {
   const hasRa = v.ra !== undefined, hasDec = v.dec !== undefined;
-  if (v.body !== undefined && (hasRa || hasDec)) ctx.addIssue({ code: 'custom', path: ['body'], message: 'give either body or ra and dec, not both' });
+  const motionKey = MOTION_KEYS.find((k) => v[k] !== undefined);
+  if (v.body !== undefined && motionKey) ctx.addIssue({ code: 'custom', path: [motionKey], message: 'applies to an ra/dec target only' });
+  else if (v.body !== undefined && (hasRa || hasDec)) ctx.addIssue({ code: 'custom', path: ['body'], message: 'give either body or ra and dec, not both' });
   else if (v.body === undefined && !hasRa && !hasDec) ctx.addIssue({ code: 'custom', path: ['body'], message: 'give either body or ra and dec' });
   else if (v.body === undefined && !hasRa) ctx.addIssue({ code: 'custom', path: ['ra'], message: 'is required with dec' });
   else if (v.body === undefined && !hasDec) ctx.addIssue({ code: 'custom', path: ['dec'], message: 'is required with ra' });
@@ -94,7 +122,11 @@ export type EventsQuery = z.infer<typeof eventsQuerySchema>;
 
 const windowTargetSchema = z.union(
   [
-    z.object({ name: z.string().min(1).max(200), ra: num(0, 360, RA), dec: num(-90, 90, DEC) }).strict(),
+    z.object({
+      name: z.string().min(1).max(200), ra: num(0, 360, RA), dec: num(-90, 90, DEC),
+      epoch: num(1000, 3000, EPOCH).optional(), pmra: num(-20000, 20000, PM).optional(), pmdec: num(-20000, 20000, PM).optional(),
+      parallax: num(0, 1000, PLX).optional(), radialVelocity: num(-3000, 3000, RV).optional(),
+    }).strict(),
     z.object({ name: z.string().min(1).max(200), body: bodyEnum }).strict(),
   ],
   { errorMap: (issue, ctx) => (issue.code === 'invalid_union' ? { message: 'each target needs a name and either ra and dec or body' } : { message: ctx.defaultError }) },
@@ -102,7 +134,12 @@ const windowTargetSchema = z.union(
 
 export const windowsBodySchema = z
   .object({
-    site: z.object({ lat: num(-90, 90, LAT), lon: num(-180, 360, LON), height: num(-500, 10000, HEIGHT).optional().default(0) }),
+    site: z.object({
+      lat: num(-90, 90, LAT), lon: num(-180, 360, LON), height: num(-500, 10000, HEIGHT).optional().default(0),
+      dut1: z.number({ invalid_type_error: 'must be a number' }).finite().gt(-1, DUT1).lt(1, DUT1).optional(),
+      xp: num(-2, 2, POLAR).optional(),
+      yp: num(-2, 2, POLAR).optional(),
+    }),
     envelope: envelopeSchema,
     targets: boundedArray(windowTargetSchema, MAX_TARGETS, `at most ${MAX_TARGETS} targets`),
     from: instant,
@@ -111,12 +148,22 @@ export const windowsBodySchema = z
   .superRefine(checkSpan);
 export type WindowsBody = z.infer<typeof windowsBodySchema>;
 
-const site = (lat: number, lon: number, height: number): SiteInput => ({ latDeg: lat, lonDeg: lon > 180 ? lon - 360 : lon, heightM: height });
-const target = (q: { ra?: number; dec?: number; body?: BodyName }) =>
-  q.body !== undefined ? { body: q.body } : { raDeg: q.ra! % 360, decDeg: q.dec! };
+const site = (lat: number, lon: number, height: number, eop: { dut1?: number; xp?: number; yp?: number } = {}): SiteInput => ({
+  latDeg: lat, lonDeg: lon > 180 ? lon - 360 : lon, heightM: height,
+  ...(eop.dut1 ? { dut1Sec: eop.dut1 } : {}), ...(eop.xp ? { xpArcsec: eop.xp } : {}), ...(eop.yp ? { ypArcsec: eop.yp } : {}),
+});
+const motionOf = (q: MotionFields): SpaceMotion | undefined => {
+  const m: SpaceMotion = { epoch: q.epoch ?? 2000, pmra: q.pmra, pmdec: q.pmdec, parallax: q.parallax, radialVelocity: q.radialVelocity };
+  return hasMotion(m) ? m : undefined;
+};
+const target = (q: { ra?: number; dec?: number; body?: BodyName } & MotionFields): Target => {
+  if (q.body !== undefined) return { body: q.body };
+  const motion = motionOf(q);
+  return motion ? { raDeg: q.ra! % 360, decDeg: q.dec!, motion } : { raDeg: q.ra! % 360, decDeg: q.dec! };
+};
 
 export function observeResponse(q: ObserveQuery) {
-  const o = observe(site(q.lat, q.lon, q.height), q.time, target(q), { refraction: q.refraction });
+  const o = observe(site(q.lat, q.lon, q.height, q), q.time, target(q), { refraction: q.refraction });
   return {
     azimuth: o.azDeg,
     altitude: o.altDeg,
@@ -128,6 +175,7 @@ export function observeResponse(q: ObserveQuery) {
     constellation: o.constellation,
     time: q.time.toISOString(),
     refraction: q.refraction,
+    earthOrientation: { dut1: q.dut1 ?? 0, xp: q.xp ?? 0, yp: q.yp ?? 0 },
     ...(o.distanceKm !== undefined ? { distanceKm: o.distanceKm } : {}),
     ...(o.magnitude !== undefined ? { magnitude: o.magnitude } : {}),
     ...(o.illuminatedFraction !== undefined ? { illuminatedFraction: o.illuminatedFraction } : {}),
@@ -137,7 +185,7 @@ export function observeResponse(q: ObserveQuery) {
 }
 
 export function eventsResponse(q: EventsQuery) {
-  const r = skyEvents(site(q.lat, q.lon, q.height), target(q), q.from, q.to);
+  const r = skyEvents(site(q.lat, q.lon, q.height, q), target(q), q.from, q.to);
   return {
     events: r.events.map((e) => ({ kind: e.kind, time: e.time.toISOString() })),
     alwaysUp: r.alwaysUp,
@@ -154,10 +202,10 @@ export const windowsStepSec = windowsGridStepSec;
 
 export function windowsResponse(b: WindowsBody) {
   const targets: WindowTarget[] = b.targets.map((t) =>
-    'body' in t ? { name: t.name, body: t.body } : { name: t.name, raDeg: t.ra % 360, decDeg: t.dec },
+    'body' in t ? { name: t.name, body: t.body } : { name: t.name, raDeg: t.ra % 360, decDeg: t.dec, ...(motionOf(t) ? { motion: motionOf(t) } : {}) },
   );
   const stepSec = windowsStepSec(b.to.getTime() - b.from.getTime(), targets.length);
-  const res = visibilityWindows(site(b.site.lat, b.site.lon, b.site.height), b.envelope, targets, b.from, b.to, { stepSec });
+  const res = visibilityWindows(site(b.site.lat, b.site.lon, b.site.height, b.site), b.envelope, targets, b.from, b.to, { stepSec });
   return {
     targets: res.map((r) => ({
       name: r.name,

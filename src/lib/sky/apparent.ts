@@ -5,15 +5,17 @@
  *   light deflection by the Sun → aberration (special-relativistic, with the observer's total
  *   barycentric velocity = Earth's orbital velocity + diurnal rotation, so diurnal aberration is
  *   included) → bias-precession-nutation N·P·B → Earth rotation (GAST) → local ENU (geodetic vertical)
- *   → refraction (refraction.ts). Polar motion and UT1 − UTC are taken as zero.
+ *   → refraction (refraction.ts). UT1 − UTC and polar motion come from the site (SiteInput.dut1Sec,
+ *   xpArcsec, ypArcsec; default zero); check: ERFA atco13 with non-zero values (earth-orientation.test.ts).
  * Earth's barycentric state and heliocentric position come from astronomy-engine (VSOP87 based).
  * Check: reference-values.md E1–E4 (atco13) to well under 1″.
  */
 import { Astronomy } from './engine';
-import { ARCSEC, DEG, RAD, type Mat3, mat3, mul, mulVec, mulVecT, wrap12, wrap24, wrap360 } from './math';
+import { ARCSEC, DEG, RAD, type Mat3, identity, mat3, mul, mulVec, mulVecT, rotX, rotY, wrap12, wrap24, wrap360 } from './math';
 import { C_AU_PER_DAY, EARTH_ROT_RAD_PER_S, SUN_SCHWARZSCHILD_AU, WGS84_A_M, WGS84_F, AU_M } from './constants';
 import { earthRotationAngleDeg, gastHours, gmstHours, instantFromDate } from './time';
-import { enuFromOfDateMatrix, npbMatrix, type SiteInput } from './frames';
+import { enuFromOfDateForSite, npbMatrix, type SiteInput } from './frames';
+import { hasMotion, moveStar, type SpaceMotion } from './motion';
 import { STANDARD_CONSTANTS, apparentAltitudeDeg, type RefractionConstants, type RefractionMode } from './refraction';
 
 export interface SkyFrame {
@@ -89,17 +91,23 @@ export interface SkyFrameOptions {
 
 /** Everything one site and instant needs, computed once (≈ 50 µs). */
 export function skyFrame(site: SiteInput, date: Date, opts: SkyFrameOptions = {}): SkyFrame {
-  const t = instantFromDate(date);
+  const t = instantFromDate(date, site.dut1Sec ?? 0);
   const era = earthRotationAngleDeg(t.dUT);
   const gmst = gmstHours(t.dUT, t.dTT);
   const gast = gastHours(t.dUT, t.dTT);
   const lst = wrap24(gast + site.lonDeg / 15);
   const npb = npbMatrix(mat3(), t.dTT);
-  const enuFromOfDate = enuFromOfDateMatrix(mat3(), site.latDeg, lst * 15);
+  const enuFromOfDate = enuFromOfDateForSite(mat3(), site, gast * 15);
   const icrsToEnu = mul(mat3(), enuFromOfDate, npb);
 
-  // Observer geocentric position and velocity: terrestrial → true of date (R3(−GAST)) → ICRS (NPBᵀ).
+  // Observer geocentric position and velocity: terrestrial → (polar motion, Wᵀ) → true of date (R3(−GAST))
+  // → ICRS (NPBᵀ).
   const r = opts.geocentric ? [0, 0, 0] : siteItrsM(site);
+  if (site.xpArcsec || site.ypArcsec) {
+    const xp = (site.xpArcsec ?? 0) * ARCSEC, yp = (site.ypArcsec ?? 0) * ARCSEC;
+    const w = rotX(mat3(), -yp, rotY(mat3(), -xp, identity(mat3())));
+    mulVecT(r, w, [r[0], r[1], r[2]]);
+  }
   const th = gast * 15 * DEG;
   const c = Math.cos(th), s = Math.sin(th);
   const pos = [r[0] * c - r[1] * s, r[0] * s + r[1] * c, r[2]];
@@ -181,9 +189,26 @@ export interface ApparentPlace {
   enu: [number, number, number];
 }
 
-export function apparentFromIcrs(f: SkyFrame, raDeg: number, decDeg: number): ApparentPlace {
-  const cd = Math.cos(decDeg * DEG);
-  const p = [cd * Math.cos(raDeg * DEG), cd * Math.sin(raDeg * DEG), Math.sin(decDeg * DEG)];
+/**
+ * Apparent place of an ICRS catalogue position; with `motion` the star is first moved to the date by its
+ * space motion (motion.ts) and, when it has a parallax, seen from the observer's heliocentric position
+ * (the Sun–barycentre offset, ≤ 0.01 au, changes a parallax of 0.77″ by < 0.01″).
+ */
+export function apparentFromIcrs(f: SkyFrame, raDeg: number, decDeg: number, motion?: SpaceMotion): ApparentPlace {
+  let p: number[];
+  if (hasMotion(motion)) {
+    const s = moveStar(raDeg, decDeg, motion, f.jdTT);
+    p = s.u;
+    if (Number.isFinite(s.distanceAu)) {
+      const d = s.distanceAu, e = f.sunToObs, r = f.sunDistAu;
+      const x = p[0] * d - e[0] * r, y = p[1] * d - e[1] * r, z = p[2] * d - e[2] * r;
+      const n = Math.hypot(x, y, z);
+      p = [x / n, y / n, z / n];
+    }
+  } else {
+    const cd = Math.cos(decDeg * DEG);
+    p = [cd * Math.cos(raDeg * DEG), cd * Math.sin(raDeg * DEG), Math.sin(decDeg * DEG)];
+  }
   deflectAndAberrate(f, p);
   const ofDate = mulVec([0, 0, 0], f.npb, p) as [number, number, number];
   const enu = mulVec([0, 0, 0], f.enuFromOfDate, ofDate) as [number, number, number];
@@ -222,8 +247,8 @@ export function describeEnu(f: SkyFrame, enu: ArrayLike<number>, mode: Refractio
 }
 
 /** Apparent topocentric place of an ICRS position at a frame: az/alt, HA, RA/Dec of date. */
-export function observeIcrs(f: SkyFrame, raDeg: number, decDeg: number, mode: RefractionMode = 'standard'): HorizontalPlace {
-  const { enu } = apparentFromIcrs(f, raDeg, decDeg);
+export function observeIcrs(f: SkyFrame, raDeg: number, decDeg: number, mode: RefractionMode = 'standard', motion?: SpaceMotion): HorizontalPlace {
+  const { enu } = apparentFromIcrs(f, raDeg, decDeg, motion);
   return describeEnu(f, enu, mode);
 }
 

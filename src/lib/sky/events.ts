@@ -52,7 +52,7 @@ function sampler(site: SiteInput, target: Target): (t: number) => Sample {
       if (target.body === 'sun') h0 = H0_SUN_DEG;
       else if (target.body === 'moon') h0 = H0_STAR_DEG - Math.asin(MOON_RADIUS_KM / bv.distanceKm) * RAD;
     } else {
-      enu = apparentFromIcrs(f, target.raDeg, target.decDeg).enu;
+      enu = apparentFromIcrs(f, target.raDeg, target.decDeg, target.motion).enu;
     }
     const E = enu[0], N = enu[1], U = enu[2];
     return {

@@ -25,6 +25,11 @@ export interface SiteInput {
   latDeg: number;
   lonDeg: number;
   heightM: number;
+  /** UT1 − UTC in seconds (IERS Bulletin A/B value for the date; |DUT1| < 0.9 s). Default 0. */
+  dut1Sec?: number;
+  /** Polar motion: the pole's coordinates xp, yp in arcseconds (IERS). Default 0. */
+  xpArcsec?: number;
+  ypArcsec?: number;
 }
 
 /** Mean obliquity at J2000.0, IAU 2006: 84381.406″. */
@@ -88,6 +93,24 @@ export function enuFromOfDateMatrix(out: Mat3, latDeg: number, lastDeg: number):
   return out;
 }
 
+/**
+ * True-of-date equatorial → ENU for a site at a Greenwich apparent sidereal angle (degrees), with polar
+ * motion when the site carries it: ENU = E(φ, λ) · W · R3(GAST), W = R1(−yp) · R2(−xp) (IERS
+ * Conventions 2010 eq. 5.3 without s′, which is < 0.1 mas a century; SOFA pom00). Without polar motion
+ * this is enuFromOfDateMatrix at LAST = GAST + λ.
+ */
+export function enuFromOfDateForSite(out: Mat3, site: SiteInput, gastDeg: number): Mat3 {
+  const xp = (site.xpArcsec ?? 0) * ARCSEC, yp = (site.ypArcsec ?? 0) * ARCSEC;
+  if (xp === 0 && yp === 0) return enuFromOfDateMatrix(out, site.latDeg, wrap360(gastDeg + site.lonDeg));
+  const w = identity(mat3());
+  rotZ(w, gastDeg * DEG, w);
+  rotY(w, -xp, w);
+  rotX(w, -yp, w);
+  // E(φ, λ): rows east, north, up of the site in the terrestrial frame (= enuFromOfDateMatrix at angle λ).
+  const e = enuFromOfDateMatrix(mat3(), site.latDeg, site.lonDeg);
+  return mul(out, e, w);
+}
+
 /** ICRS → mean ecliptic and equinox of J2000.0. */
 export const ICRS_TO_ECLIPTIC_J2000: Mat3 = rotX(mat3(), OBLIQUITY_J2000_DEG * DEG, BIAS);
 
@@ -123,15 +146,14 @@ export function icrsToFrameMatrix(out: Mat3, frame: FrameName, site: SiteInput, 
       out.set(ICRS_TO_GALACTIC);
       return out;
     default: {
-      const t = instantFromDate(date);
+      const t = instantFromDate(date, site.dut1Sec ?? 0);
       npbMatrix(out, t.dTT);
       if (frame === 'ofDate') return out;
       if (frame === 'eclipticOfDate') {
         const eps = meanObliquityRad(t.dTT) + nutationIau2000b(t.dTT).dEpsRad;
         return rotX(out, eps, out);
       }
-      const lastDeg = wrap360(gastHours(t.dUT, t.dTT) * 15 + site.lonDeg);
-      const s = enuFromOfDateMatrix(mat3(), site.latDeg, lastDeg);
+      const s = enuFromOfDateForSite(mat3(), site, gastHours(t.dUT, t.dTT) * 15);
       return mul(out, s, out);
     }
   }

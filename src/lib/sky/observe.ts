@@ -5,8 +5,10 @@ import { airmassKastenYoung } from './airmass';
 import { constellationOf } from './constellation';
 import type { SiteInput } from './frames';
 import type { RefractionMode } from './refraction';
+import { hasMotion, moveStar, movedRaDec, type SpaceMotion } from './motion';
 
-export type Target = { raDeg: number; decDeg: number } | { body: BodyName };
+/** A catalogue position (ICRS at `motion.epoch`, default J2000.0, with optional space motion) or a body. */
+export type Target = { raDeg: number; decDeg: number; motion?: SpaceMotion } | { body: BodyName };
 
 export interface ObserveOptions {
   refraction?: RefractionMode;
@@ -47,10 +49,11 @@ export function observeAt(f: SkyFrame, target: Target, opts: ObserveOptions = {}
     if (p.elongationDeg !== undefined) r.elongationDeg = p.elongationDeg;
     return r;
   }
-  const p = observeIcrs(f, target.raDeg, target.decDeg, mode);
+  const p = observeIcrs(f, target.raDeg, target.decDeg, mode, target.motion);
+  const here = hasMotion(target.motion) ? movedRaDec(moveStar(target.raDeg, target.decDeg, target.motion, f.jdTT)) : target;
   return {
     azDeg: p.azDeg, altDeg: p.altDeg, haHours: p.haHours, raOfDateDeg: p.raOfDateDeg, decOfDateDeg: p.decOfDateDeg,
-    lstHours: f.lstHours, airmass: airmassKastenYoung(p.altDeg), constellation: constellationOf(target.raDeg, target.decDeg).abbr,
+    lstHours: f.lstHours, airmass: airmassKastenYoung(p.altDeg), constellation: constellationOf(here.raDeg, here.decDeg).abbr,
   };
 }
 

@@ -1,9 +1,9 @@
 /**
  * Time scales for the sky engine.
  *
- * - Instants come in as JavaScript `Date`s (UTC). UT1 − UTC (|DUT1| < 0.9 s) is taken as 0: Earth
- *   rotation is therefore uncertain by up to 13.5″, which is fine for planning; the reference values
- *   (IAU SOFA atco13 runs) also use dut1 = 0.
+ * - Instants come in as JavaScript `Date`s (UTC). UT1 − UTC (|DUT1| < 0.9 s) is 0 unless the site
+ *   carries it (SiteInput.dut1Sec, from IERS Bulletin A): without it Earth rotation is uncertain by up
+ *   to 13.5″, fine for planning, not for pointing.
  * - TT = UTC + (TAI − UTC) + 32.184 s inside the leap-second era (IERS Bulletin C table below), so
  *   ΔT = TT − UT1 is then exact up to DUT1. Before 1972 ΔT is the Espenak–Meeus polynomial fit; after
  *   the last leap second ΔT is held at 69.184 s to 2030 and then blended linearly into the
@@ -128,9 +128,14 @@ export interface Instant {
   deltaTSec: number;
 }
 
-export function instantFromDate(date: Date): Instant {
-  const dUT = utDaysFromDate(date);
-  const deltaTSec = deltaTSeconds(dUT + J2000_JD);
-  const dTT = dUT + deltaTSec / 86400;
-  return { date, dUT, dTT, jdUT: dUT + J2000_JD, jdTT: dTT + J2000_JD, deltaTSec };
+/**
+ * The time quantities of a UTC instant. With `dut1Sec` (UT1 − UTC) Earth rotation uses UT1 = UTC + DUT1,
+ * while TT stays UTC + (TAI − UTC) + 32.184 s; ΔT = TT − UT1 is then the model's value − DUT1.
+ */
+export function instantFromDate(date: Date, dut1Sec = 0): Instant {
+  const dUTC = utDaysFromDate(date);
+  const ttMinusUtc = deltaTSeconds(dUTC + J2000_JD);
+  const dUT = dUTC + dut1Sec / 86400;
+  const dTT = dUTC + ttMinusUtc / 86400;
+  return { date, dUT, dTT, jdUT: dUT + J2000_JD, jdTT: dTT + J2000_JD, deltaTSec: ttMinusUtc - dut1Sec };
 }

@@ -11,6 +11,8 @@
  * unrefracted directions. `closedBy` names the limit that ends a window ('span-end' at the end of
  * the span), `openedBy` the limit that was violated just before it began ('span-start').
  */
+import { hasMotion, moveStar, movedRaDec, type SpaceMotion } from './motion';
+import { instantFromDate } from './time';
 import { RAD } from './math';
 import { SUN_SCHWARZSCHILD_AU } from './constants';
 import { skyFrame, type SkyFrame } from './apparent';
@@ -20,7 +22,11 @@ import { STANDARD_CONSTANTS, refractionForTrueAltitudeDeg } from './refraction';
 import { azimuthMarginDeg, maskAltitudeDeg, prepareMask, type Envelope, type LimitName } from './envelope';
 import type { SiteInput } from './frames';
 
-export type WindowTarget = { name: string; raDeg: number; decDeg: number } | { name: string; body: BodyName };
+/**
+ * A fixed target (ICRS; with `motion`, moved by its space motion to the middle of the span, which is exact
+ * to < 0.1″ for any star over the 31-day limit; its annual parallax, < 1″, is left out of window edges) or a body.
+ */
+export type WindowTarget = { name: string; raDeg: number; decDeg: number; motion?: SpaceMotion } | { name: string; body: BodyName };
 
 export interface VisibilityWindow {
   start: Date;
@@ -158,7 +164,12 @@ export function visibilityWindows(site: SiteInput, env: Envelope, targets: Windo
   const fixedIdx: number[] = [];
   const bodyIdx: number[] = [];
   targets.forEach((t, i) => ('body' in t ? bodyIdx : fixedIdx).push(i));
-  const fixedSet = { raDeg: Float64Array.from(fixedIdx, (i) => (targets[i] as { raDeg: number }).raDeg), decDeg: Float64Array.from(fixedIdx, (i) => (targets[i] as { decDeg: number }).decDeg) };
+  const midJdTT = instantFromDate(new Date((from + to) / 2), site.dut1Sec ?? 0).jdTT;
+  const fixedPlaces = fixedIdx.map((i) => {
+    const t = targets[i] as { raDeg: number; decDeg: number; motion?: SpaceMotion };
+    return hasMotion(t.motion) ? movedRaDec(moveStar(t.raDeg, t.decDeg, t.motion, midJdTT)) : t;
+  });
+  const fixedSet = { raDeg: Float64Array.from(fixedPlaces, (t) => t.raDeg), decDeg: Float64Array.from(fixedPlaces, (t) => t.decDeg) };
   const u = unitVectors(fixedSet);
   const bodiesNeeded = new Set<BodyName>(bodyIdx.map((i) => (targets[i] as { body: BodyName }).body));
   const needSun = env.sunAvoidance !== undefined;

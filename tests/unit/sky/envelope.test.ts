@@ -51,8 +51,15 @@ describe('envelope pieces (constructed by hand)', () => {
     expect(maskAltitudeDeg(m, 180)).toBeCloseTo(20, 12); // 10 → 350 through south: halfway
     expect(maskAltitudeDeg(m, 10)).toBeCloseTo(30, 12);
     expect(maskAltitudeDeg(prepareMask([[123, 7]]), 300)).toBe(7);
-    // a 10 m wall 20 m away blocks below 26.57° (domain-facts.md, derived): atan(10/20)
-    expect(Math.atan(10 / 20) * RAD).toBeCloseTo(26.565, 3);
+  });
+
+  it('a 10 m wall 20 m away, entered as a mask of 26.565° (domain-facts.md: atan(10/20) = 26.5651°), blocks below that altitude only', () => {
+    const env = envelopeSchema.parse({ horizonMask: [[150, 26.565], [210, 26.565]] });
+    const below = evaluateEnvelope(env, { azDeg: 180, altDeg: 26.5 });
+    expect(below.allowed).toBe(false);
+    expect(below.violations.map((v) => v.limit)).toEqual(['horizonMask']);
+    expect(below.violations[0]!.margin).toBeCloseTo(-0.065, 9);
+    expect(evaluateEnvelope(env, { azDeg: 180, altDeg: 26.6 }).allowed).toBe(true);
   });
 
   it('evaluateEnvelope reports every violated limit with its margin', () => {

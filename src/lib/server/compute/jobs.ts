@@ -11,6 +11,7 @@ import { positionsCsv, windowsCsv } from '../../exports/tables';
 import { buildHandout } from '../../handout/handout';
 import { sceneFileSchema } from '../../exports/scene-json';
 import type { SceneOut } from '../scenes';
+import { nightData, type NightInput } from '../../sky/night';
 
 export interface ComputeIssue {
   field?: string;
@@ -24,6 +25,8 @@ export const jobs = {
   positionsCsv: (input: { scene: SceneOut; at: Date }) => positionsCsv(input.scene, input.at),
   /** export-windows.csv / windows.csv: visibility windows of every target over a span. */
   windowsCsv: (input: { scene: SceneOut; from: Date; to: Date; stepSec?: number }) => windowsCsv(input.scene, input.from, input.to, { stepSec: input.stepSec }),
+  /** GET /api/scenes/:id/night and the night charts: Sun, Moon, per-target samples, windows and best moment over a span ≤ 36 h. */
+  night: (input: NightInput) => nightData(input),
   /** The printable handout's model (chart, events, targets) of a scene. */
   handout: (input: { scene: SceneOut }) => buildHandout(input.scene),
   /** A scene file (parsed JSON) checked against the `armilla-scene` schema. */

@@ -13,5 +13,5 @@ import { nightAnswer } from '../../../../lib/server/night';
 export const GET = route(async ({ locals, params, url }) => {
   const user = requireUser(locals);
   const q = parseQuery(nightQuerySchema, url);
-  return json(nightAnswer(await sceneForMember(db, user, params.id!), q));
+  return json(await nightAnswer(await sceneForMember(db, user, params.id!), q, { key: `user:${user.id}`, who: 'member' }));
 });

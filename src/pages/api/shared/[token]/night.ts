@@ -10,5 +10,5 @@ export const GET = route(async (ctx) => {
   const q = parseQuery(nightQuerySchema, ctx.url);
   const scene = await sceneForToken(db, ctx.params.token!);
   await rateLimit(`night:${clientAddress(ctx)}`, 120, 60);
-  return json(nightAnswer(scene, q));
+  return json(await nightAnswer(scene, q, { key: `addr:${clientAddress(ctx)}`, who: 'anonymous' }));
 });

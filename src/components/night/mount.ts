@@ -1,0 +1,19 @@
+/** Small helpers the scene pages use to mount the night panel. */
+import type { CommentOut } from '../../lib/client/types';
+import type { ChartComment } from './AltitudeChart';
+
+/** What the night depends on, as one string (refetch when it changes; the scene time alone does not). */
+export function nightRevision(scene: { site: unknown; envelope?: unknown; envelopeId?: string | null; targets: unknown[] }): string {
+  return JSON.stringify([scene.site, scene.envelope ?? null, scene.envelopeId ?? null, scene.targets]);
+}
+
+/** Top-level comments pinned to a point of the altitude chart. */
+export function chartComments(comments: CommentOut[]): ChartComment[] {
+  const out: ChartComment[] = [];
+  for (const c of comments) {
+    const a = c.anchor as { chart?: string; target?: string; time?: string } | null;
+    if (c.parentId || !a || a.chart !== 'altitude' || !a.target || !a.time) continue;
+    out.push({ id: c.id, target: a.target, time: a.time, body: c.body, author: c.author.name });
+  }
+  return out;
+}

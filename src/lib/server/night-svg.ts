@@ -1,0 +1,23 @@
+/**
+ * The night charts as standalone SVG files (downloads, the printed handout's source): the same React
+ * components the workspace draws, rendered on the server with paper inks.
+ */
+import { createElement } from 'react';
+import { renderToStaticMarkup } from 'react-dom/server';
+import { AltitudeChart } from '../../components/night/AltitudeChart';
+import type { NightAnswer } from '../sky/night';
+
+export function altitudeChartSvg(data: NightAnswer, timeZone: string, cursor: number | null): string {
+  const svg = renderToStaticMarkup(createElement(AltitudeChart, { data, timeZone, ink: 'print', fixedSize: true, width: 960, height: 440, cursor }));
+  return `<?xml version="1.0" encoding="UTF-8"?>\n${svg}\n`;
+}
+
+export function svgResponse(svg: string, filename: string): Response {
+  return new Response(svg, {
+    headers: {
+      'content-type': 'image/svg+xml; charset=utf-8',
+      'content-disposition': `attachment; filename="${filename.replace(/[^A-Za-z0-9._-]/g, '-')}"`,
+      'cache-control': 'no-store',
+    },
+  });
+}
