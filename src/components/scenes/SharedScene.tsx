@@ -11,6 +11,7 @@ import { ApiError, apiGet, errorText } from '../../lib/client/api';
 import type { Anchor, LinkRole, PublicScene } from '../../lib/client/types';
 import { anchorFromPick, commentMarkers, formatInZone, sceneAtStep, toSceneLike } from '../../lib/client/scene-view';
 import { Sky, type PickedPoint } from './Sky';
+import { afterFirstFrame } from '../sphere/engine';
 import { Section, Tabs } from './bits';
 import { ExportPanel } from './ExportPanel';
 import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
@@ -21,8 +22,8 @@ import { chartComments, nightRevision } from '../night/mount';
 
 /** Only reviewer links show it: a chunk of its own, so a viewer link's first frame does not wait for it. */
 const ReviewPanel = lazy(() => import('../review/ReviewPanel').then((m) => ({ default: m.ReviewPanel })));
-/** Below the sky, and with its charting code: a chunk of its own, loaded while the sky draws. */
-const NightPanel = lazy(() => import('../night/NightPanel').then((m) => ({ default: m.NightPanel })));
+/** Below the sky, with its charting code: a chunk of its own, fetched once the sky has drawn its first frame. */
+const NightPanel = lazy(() => afterFirstFrame().then(() => import('../night/NightPanel')).then((m) => ({ default: m.NightPanel })));
 
 function Shared({ token, embed }: { token: string; embed: boolean }) {
   const q = useQuery({
