@@ -7,7 +7,7 @@
 // (c) astronomy-engine's own topocentric Equator() for the nine, the chain used before the VSOP87B series.
 // (d) a night of samples: nine bodies every 5 min over 24 h (288 instants), as night charts ask.
 import { mkdirSync, writeFileSync } from 'node:fs';
-import { Astronomy } from '../../src/lib/sky/engine';
+import { Astronomy } from '../../src/lib/sky/astronomy';
 import { skyFrame } from '../../src/lib/sky/apparent';
 import { BODY_NAMES, bodyVector, astronomyBody } from '../../src/lib/sky/bodies';
 import { SERIES_TERMS } from '../../src/lib/sky/planets/series';

@@ -12,7 +12,7 @@ import * as Astronomy from 'astronomy-engine';
 import { loadCatalogue } from '../../src/lib/sky/catalogue';
 import { observeIcrs, skyFrame } from '../../src/lib/sky/apparent';
 import { starsToHorizontal } from '../../src/lib/sky/stars';
-import { windowsBodySchema, windowsResponse } from '../../src/lib/sky/api';
+import { windowsBodySchema, windowsResponse } from '../../src/lib/server/sky-api';
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);

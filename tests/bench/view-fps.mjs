@@ -2,8 +2,10 @@
 /**
  * Benchmark of the sphere view (standalone): headless Chromium with SwiftShader (software WebGL, no GPU).
  *  1. time to first frame of /sky after navigation (goal ≤ 2 s), median of 3 fresh pages;
- *  2. frames per second while time plays, canvas 1280×720, all layers on, Observer and Sphere view
- *     (goal ≥ 30 fps), counted with requestAnimationFrame-driven renders exposed on window.__armillaStats.
+ *  2. frames per second while time plays, all layers on, Observer and Sphere view (goal ≥ 30 fps), counted
+ *     with requestAnimationFrame-driven renders exposed on window.__armillaStats: the canvas alone at
+ *     1280×720, and whole /sky pages at 1440×900 and 1920×1080 (the sky-filling layout's canvas); plus the
+ *     Observer view with the flat background of before the sky dome (`?sky=flat`), for before/after.
  * Both are measured in two browser set-ups, each WebGL on SwiftShader:
  *  - "no-GPU browser": the page composited in software (--disable-gpu-compositing). This is what Chrome
  *    does on a machine without a usable GPU: WebGL falls back to SwiftShader and the display compositor
@@ -26,6 +28,12 @@ const QUERY = process.env.ARMILLA_BENCH_QUERY ? `&${process.env.ARMILLA_BENCH_QU
 const ARGS = [...EXTRA, '--use-gl=angle', '--use-angle=swiftshader', '--enable-unsafe-swiftshader', '--no-sandbox', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
 const TIME = '2026-03-21T04:00:00Z';
 const PLAY_S = 5;
+// `ARMILLA_BENCH_SIZES=1440x900,1920x1080` to measure a subset; 1280x720 pins the canvas alone, larger
+// sizes are whole pages at that viewport.
+const SIZES = (process.env.ARMILLA_BENCH_SIZES ?? '1280x720,1440x900,1920x1080').split(',').map((x) => {
+  const [width, height] = x.split('x').map(Number);
+  return { width, height, page: !(width === 1280 && height === 720) };
+});
 
 const dist = resolve(process.env.ARMILLA_BENCH_DIST ?? 'dist');
 if (!existsSync(join(dist, 'server/entry.mjs'))) {
@@ -71,37 +79,25 @@ async function waitUp() {
 
 const median = (xs) => (xs.length ? [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)] : null);
 
-async function measure(setup) {
-  const browser = await chromium.launch({ executablePath: CHROMIUM, headless: true, args: [...setup.args, ...ARGS] });
-  try {
-  // 1. Time to first frame.
-  const ttff = [];
-  for (let i = 0; i < (process.env.ARMILLA_BENCH_SKIP_TTFF ? 0 : 3); i++) {
-    const ctx = await browser.newContext({ viewport: { width: 1280, height: 720 } });
-    const page = await ctx.newPage();
-    await page.goto(`${url}/sky?time=${TIME}`);
-    await page.waitForFunction(() => window.__armillaStats?.firstFrameAt != null, null, { timeout: 60_000 });
-    // performance.now() counts from the navigation start.
-    ttff.push(await page.evaluate(() => window.__armillaStats.firstFrameAt));
-    await ctx.close();
-  }
-
-  // 2. Frames per second while time plays, all layers on, canvas 1280×720.
-  const page = await browser.newPage({ viewport: { width: 1280, height: 720 } });
+/** Plays time for PLAY_S seconds in each view at one size; returns fps and the per-frame split. */
+async function playAt(browser, size, extraQuery, views = ['observer', 'sphere', 'baseline']) {
+  const page = await browser.newPage({ viewport: { width: size.width, height: size.height } });
   const errors = [];
   page.on('pageerror', (e) => errors.push(e.message));
-  await page.goto(`${url}/sky?time=${TIME}&plan=1${QUERY}`);
+  await page.goto(`${url}/sky?time=${TIME}&plan=1${QUERY}${extraQuery}`);
   await page.waitForFunction(() => (window.__armillaStats?.frames ?? 0) >= 1, null, { timeout: 60_000 });
   await page.waitForTimeout(1000);
   await page.evaluate(() => document.querySelectorAll('[data-layer]').forEach((el) => !el.checked && el.click()));
-  await page.evaluate(() => {
-    const el = document.querySelector('[data-testid=sky-canvas]');
-    Object.assign(el.style, { position: 'fixed', left: '0', top: '0', width: '1280px', height: '720px', zIndex: '50' });
-  });
+  if (!size.page) {
+    await page.evaluate(({ w, h }) => {
+      const el = document.querySelector('[data-testid=sky-canvas]');
+      Object.assign(el.style, { position: 'fixed', left: '0', top: '0', width: `${w}px`, height: `${h}px`, zIndex: '50' });
+    }, { w: size.width, h: size.height });
+    await page.waitForFunction((w) => document.querySelector('[data-testid=sky-canvas] canvas')?.clientWidth >= w - 2, size.width, { timeout: 10_000 }).catch(() => {});
+  }
   await page.selectOption('[data-testid=rate]', '3600');
-  await page.waitForFunction(() => document.querySelector('[data-testid=sky-canvas] canvas')?.clientWidth >= 1278, null, { timeout: 10_000 }).catch(() => {});
   await page.waitForTimeout(500);
-  const size = await page.evaluate(() => {
+  const canvas = await page.evaluate(() => {
     const c = document.querySelector('[data-testid=sky-canvas] canvas');
     // CSS size on the page; under a software renderer the WebGL backing store is smaller (see SkyCanvas.tsx).
     return `${c.clientWidth}×${c.clientHeight} CSS px (WebGL backing store ${c.width}×${c.height})`;
@@ -112,7 +108,7 @@ async function measure(setup) {
     return g && ext ? String(g.getParameter(ext.UNMASKED_RENDERER_WEBGL)) : 'unknown';
   });
   const runs = [];
-  for (const view of ['observer', 'sphere', 'baseline']) {
+  for (const view of views) {
     if (view === 'baseline') {
       // Environment floor: the same canvas with every layer off (what the machine gives an almost empty scene).
       await page.evaluate(() => document.querySelectorAll('[data-layer]').forEach((el) => el.checked && el.click()));
@@ -142,7 +138,34 @@ async function measure(setup) {
     });
     await page.waitForTimeout(300);
   }
-  return { setup: setup.name, flags: setup.args, webglRenderer: renderer, canvas: size, timeToFirstFrameMs: { runs: ttff, median: median(ttff), goal: 2000 }, playing: runs, pageErrors: errors };
+  await page.close();
+  return { size: `${size.width}×${size.height}${size.page ? ' page' : ' canvas'}`, sky: extraQuery ? 'flat (before)' : 'dome', canvas, webglRenderer: renderer, playing: runs, pageErrors: errors };
+}
+
+async function measure(setup) {
+  const browser = await chromium.launch({ executablePath: CHROMIUM, headless: true, args: [...setup.args, ...ARGS] });
+  try {
+  // 1. Time to first frame.
+  const ttff = [];
+  for (let i = 0; i < (process.env.ARMILLA_BENCH_SKIP_TTFF ? 0 : 3); i++) {
+    const ctx = await browser.newContext({ viewport: { width: 1280, height: 720 } });
+    const page = await ctx.newPage();
+    await page.goto(`${url}/sky?time=${TIME}`);
+    await page.waitForFunction(() => window.__armillaStats?.firstFrameAt != null, null, { timeout: 60_000 });
+    // performance.now() counts from the navigation start.
+    ttff.push(await page.evaluate(() => window.__armillaStats.firstFrameAt));
+    await ctx.close();
+  }
+
+  // 2. Frames per second while time plays, all layers on, at each size: 1280×720 is the canvas alone
+  // pinned over the page (the figure of earlier rounds); the larger sizes are whole pages of /sky at that
+  // viewport, the canvas as large as the page lays it out (sky-filling layout).
+  const sizes = [];
+  for (const size of SIZES) sizes.push(await playAt(browser, size, ''));
+  // Before/after of the sky dome (sky-colour.ts): the Observer view with the flat background it replaced.
+  const flat = [];
+  if (!process.env.ARMILLA_BENCH_SKIP_FLAT) for (const size of SIZES.filter((x) => x.page)) flat.push(await playAt(browser, size, '&sky=flat', ['observer']));
+  return { setup: setup.name, flags: setup.args, timeToFirstFrameMs: { runs: ttff, median: median(ttff), goal: 2000 }, sizes, flatSkyBefore: flat };
   } finally {
     await browser.close();
   }
@@ -167,17 +190,19 @@ try {
   };
   const f1 = (x) => x.toFixed(1);
   console.log('\nSphere view benchmark (headless Chromium, WebGL on SwiftShader)');
-  console.log(`machine: ${result.machine.cpus} cores, load ${f1(result.machine.loadavg1)}; canvas ${setups[0].canvas}; WebGL renderer: ${setups[0].webglRenderer}`);
+  console.log(`machine: ${result.machine.cpus} cores, load ${f1(result.machine.loadavg1)}; WebGL renderer: ${setups[0].sizes[0]?.webglRenderer}`);
   console.log('| browser set-up | measure | value | goal |');
   console.log('| --- | --- | --- | --- |');
   for (const s of setups) {
     const who = s.setup.split(' (')[0];
     if (s.timeToFirstFrameMs.runs.length) console.log(`| ${who} | time to first frame of /sky (median of 3: ${s.timeToFirstFrameMs.runs.map(Math.round).join(', ')} ms) | ${Math.round(s.timeToFirstFrameMs.median)} ms | ≤ 2000 ms |`);
-    for (const r of s.playing) {
-      const what = r.view === 'baseline' ? 'baseline: all layers off (environment floor)' : `${r.view} view, all layers`;
-      console.log(`| ${who} | fps while time plays, ${what} | ${f1(r.fps)} fps (JS ${f1(r.jsUpdateMsPerFrame)} + render call ${f1(r.renderCallMsPerFrame)} + labels ${f1(r.overlayMsPerFrame)} ms/frame) | ${r.goal ? '≥ 30 fps' : '—'} |`);
+    for (const z of [...s.sizes, ...s.flatSkyBefore]) {
+      for (const r of z.playing) {
+        const what = r.view === 'baseline' ? 'baseline: all layers off (environment floor)' : `${r.view} view, all layers${z.sky === 'dome' ? '' : ', flat background (before the sky dome)'}`;
+        console.log(`| ${who} | ${z.size} (canvas ${z.canvas.split(' (')[0]}): fps while time plays, ${what} | ${f1(r.fps)} fps (JS ${f1(r.jsUpdateMsPerFrame)} + render call ${f1(r.renderCallMsPerFrame)} + labels ${f1(r.overlayMsPerFrame)} ms/frame) | ${r.goal ? '≥ 30 fps' : '—'} |`);
+      }
+      if (z.pageErrors.length) console.log('page errors:', z.pageErrors);
     }
-    if (s.pageErrors.length) console.log('page errors:', s.pageErrors);
   }
   mkdirSync('tests/bench/results', { recursive: true });
   writeFileSync('tests/bench/results/view.json', JSON.stringify(result, null, 2) + '\n');

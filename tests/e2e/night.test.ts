@@ -40,6 +40,8 @@ browserTest('the altitude chart draws one curve per target, its cursor and the s
   const { page, context, realErrors } = await newPage(browser, { baseURL: world.url, viewport: { width: 1440, height: 900 } });
   const sceneId = await makeScene(context);
   await page.goto(`/scenes/${sceneId}`);
+  // The night charts live in a sheet under the sky, opened from the title strip (closed at first).
+  await page.getByTestId('sheet-toggle').click();
   const chart = page.locator('[data-testid=altitude-chart]');
   await chart.waitFor({ timeout: 60_000 });
   // one curve group per target, in the scene's order, each with at least one drawn run

@@ -167,7 +167,7 @@ describe('GET /api/shared/:token', () => {
     expect((await as.anon.get(`/api/shared/${a.token}`)).status).toBe(404);
   });
 
-  // The answer is served from a cache keyed by the scene's state (scenes.server.ts publicSceneJson):
+  // The answer is served from a cache keyed by the scene's state (scene-service.ts publicSceneJson):
   // every change must show at once, also when it is made through another instance on the same file.
   test('the answer follows every change at once: edit, thumbnail, team envelope edited and deleted, revocation', async () => {
     const env = (await as.editor.post(`/api/teams/${teamId}/envelopes`, { name: 'Cache limits', minAltitude: 15 })).data.envelope;

@@ -5,7 +5,7 @@
  * presenter's server-sent events.
  */
 import { useCallback, useEffect, useRef, useState, type ReactNode } from 'react';
-import type { PresenterOut } from '../../lib/client/types';
+import type { PresenterOut } from '../../lib/contracts/presenter';
 import { apiPost } from '../../lib/client/api';
 import { sceneAtStep, type SceneLike } from '../../lib/client/scene-view';
 import { Stage, STAGE_BUTTON } from '../stage/Stage';

@@ -1,11 +1,11 @@
 /** Briefing steps: ordered stops (time, camera, layers, caption, optional pin focus). */
 import { useId, useState } from 'react';
-import type { Pin, Step } from '../../lib/scenes/scene';
-import type { SceneOut } from '../../lib/client/types';
+import type { Pin, Step } from '../../lib/contracts/scene-doc';
+import type { SceneOut } from '../../lib/contracts/scene';
 import { inputUtcToIso, isoToInputUtc, moveItem, newId, formatInZone } from '../../lib/client/scene-view';
 import { markdownToText } from '../../lib/markdown';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from '../scenes/bits';
+import { INPUT, LABEL } from '../scenes/controls';
 import { Markdown } from './Markdown';
 
 function StepForm({ step, pins, onSave, onCancel, scene }: { step: Step; pins: Pin[]; onSave: (s: Step) => void; onCancel: () => void; scene: SceneOut }) {

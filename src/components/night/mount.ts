@@ -1,5 +1,5 @@
 /** Small helpers the scene pages use to mount the night panel. */
-import type { CommentOut } from '../../lib/client/types';
+import type { CommentOut } from '../../lib/contracts/comment';
 import type { ChartComment } from './AltitudeChart';
 
 /** What the night depends on, as one string (refetch when it changes; the scene time alone does not). */

@@ -5,12 +5,13 @@
 import { useEffect, useId, useMemo, useState } from 'react';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiPatch, apiPost, errorText } from '../../lib/client/api';
-import type { Anchor, CommentOut, Step } from '../../lib/client/types';
+import type { Anchor, CommentOut } from '../../lib/contracts/comment';
+import type { Step } from '../../lib/contracts/scene-doc';
 import { describeAnchor, threads, timeAgo } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
 import { Markdown } from '../briefing/Markdown';
-import { INPUT, LABEL } from '../scenes/bits';
+import { INPUT, LABEL } from '../scenes/controls';
 import { commentsKey, useComments, type ReviewAccess } from './comments';
 
 export { commentsKey, useComments, type ReviewAccess } from './comments';

@@ -4,7 +4,7 @@
  */
 import { useQuery } from '@tanstack/react-query';
 import { apiGet } from '../../lib/client/api';
-import type { CommentOut } from '../../lib/client/types';
+import type { CommentOut } from '../../lib/contracts/comment';
 
 export type ReviewAccess =
   | { kind: 'member'; sceneId: string; canComment: boolean; canResolve: boolean }

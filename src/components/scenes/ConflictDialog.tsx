@@ -1,6 +1,6 @@
 /** Shown on a 409: keep mine, take theirs, or compare the changed fields side by side. */
 import { useState } from 'react';
-import type { SceneOut } from '../../lib/client/types';
+import type { SceneOut } from '../../lib/contracts/scene';
 import { diffScenes, FIELD_LABELS, lineDiff, stableStringify } from '../../lib/client/scene-diff';
 import { Button } from '../ui/Button';
 

@@ -1,13 +1,15 @@
 /** The scene's fields: editors change them (autosaved), viewers and reviewers read them. */
 import { useEffect, useMemo, useState, useId } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { cameraSchema, LAYER_KEYS, siteSchema, type Camera, type LayerKey, type Layers, type Site } from '../../lib/scenes/scene';
-import { envelopeSchema } from '../../lib/server/envelope-schema';
+import { cameraSchema, LAYER_KEYS, siteSchema, type Camera, type LayerKey, type Layers, type Site } from '../../lib/contracts/scene-doc';
+import { envelopeSchema } from '../../lib/contracts/envelope';
 import { apiGet } from '../../lib/client/api';
-import type { EnvelopeOut, SceneOut, SiteOut } from '../../lib/client/types';
+import type { EnvelopeOut } from '../../lib/contracts/envelope';
+import type { SceneOut } from '../../lib/contracts/scene';
+import type { SiteOut } from '../../lib/contracts/site';
 import { formatInZone, inputUtcToIso, isoToInputUtc } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL, NumberField, Section } from './bits';
+import { INPUT, LABEL, NumberField, Section } from './controls';
 import { TargetsEditor } from './TargetsEditor';
 import { HorizonImport, SkylineProfile } from './HorizonImport';
 

@@ -3,7 +3,7 @@
  * scene (members by id, guests by share token). Tables are computed at the time shown in the view.
  */
 import { useId, useState } from 'react';
-import { INPUT, LABEL } from './bits';
+import { INPUT, LABEL } from './controls';
 
 export type ExportSource = { kind: 'scene'; id: string } | { kind: 'shared'; token: string };
 

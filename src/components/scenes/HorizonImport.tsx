@@ -10,7 +10,7 @@ import { HORIZON_CONVENTIONS, parseHorizonCsv, type HorizonConvention } from '..
 import { AZIMUTH_TICKS, elevationRange, skylinePath, type MaskPoint } from '../../lib/client/skyline';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { INPUT, LABEL } from './bits';
+import { INPUT, LABEL } from './controls';
 import { postFile } from './TargetsImport';
 
 const MAX_HORIZON_BYTES = 1024 * 1024;

@@ -1,9 +1,9 @@
 /** Pins: placed by clicking on the sky. A draft collects points until it has enough for its kind. */
 import { useId } from 'react';
-import type { Pin } from '../../lib/scenes/scene';
+import type { Pin } from '../../lib/contracts/scene-doc';
 import { MIN_POINTS, newId } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from './bits';
+import { INPUT, LABEL } from './controls';
 
 export interface PinDraft {
   kind: Pin['kind'];

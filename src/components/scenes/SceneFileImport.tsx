@@ -1,10 +1,10 @@
 /** "Import scene file (.json)": an armilla-scene file (from "Scene file (JSON)") → a new scene in the team. */
 import { useId, useState } from 'react';
 import { errorText, readError } from '../../lib/client/api';
-import type { SceneOut } from '../../lib/client/types';
+import type { SceneOut } from '../../lib/contracts/scene';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
-import { LABEL } from './bits';
+import { LABEL } from './controls';
 import { postFile, tooBigText, MAX_UPLOAD_BYTES } from './TargetsImport';
 
 export function SceneFileImport({ teamId, teamName }: { teamId: string; teamName: string }) {

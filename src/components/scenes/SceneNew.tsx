@@ -5,11 +5,12 @@ import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
 import { apiGet, apiPost, errorText } from '../../lib/client/api';
-import type { SceneOut, SiteOut } from '../../lib/client/types';
+import type { SceneOut } from '../../lib/contracts/scene';
+import type { SiteOut } from '../../lib/contracts/site';
 import { inputUtcToIso } from '../../lib/client/scene-view';
-import type { Site } from '../../lib/scenes/scene';
+import type { Site } from '../../lib/contracts/scene-doc';
 import { SiteForm } from './EditorPanel';
-import { INPUT, LABEL } from './bits';
+import { INPUT, LABEL } from './controls';
 import { SceneFileImport } from './SceneFileImport';
 
 type Mode = 'blank' | 'site' | 'copy';

@@ -10,7 +10,7 @@ import { Button } from '../ui/Button';
 import { apiGet, errorText } from '../../lib/client/api';
 import { timeAgo } from '../../lib/client/scene-view';
 import { filterScenes, type SceneListRow, type SortKey } from '../../lib/client/scene-list';
-import { INPUT, LABEL } from './bits';
+import { INPUT, LABEL } from './controls';
 
 const PAGE = 10;
 

@@ -10,7 +10,9 @@ import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
 import { ApiError, apiGet, apiPatch, errorText, request, readError } from '../../lib/client/api';
 import { Autosave, type SaveFn } from '../../lib/client/autosave';
-import type { Anchor, CommentOut, Role, SceneOut } from '../../lib/client/types';
+import type { Anchor, CommentOut } from '../../lib/contracts/comment';
+import type { Role } from '../../lib/contracts/roles';
+import type { SceneOut } from '../../lib/contracts/scene';
 import { anchorFromPick, commentMarkers, pinPointFromPick, sceneAtStep, toSceneLike, type SceneLike } from '../../lib/client/scene-view';
 import { sameValue } from '../../lib/client/scene-diff';
 import { EditorPanel, type SceneSync } from './EditorPanel';
@@ -19,7 +21,8 @@ import type { PinDraft } from './PinsEditor';
 import { ConflictDialog } from './ConflictDialog';
 import { VersionHistory } from './VersionHistory';
 import { SharePanel } from './SharePanel';
-import { SaveBadge, Section, Tabs } from './bits';
+import { SaveBadge, Section, Tabs } from './controls';
+import { can } from '../../lib/contracts/roles';
 import { Sky, shrinkPng, type PickedPoint } from './Sky';
 import { StepsEditor } from '../briefing/StepsEditor';
 import { AudienceStage, FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
@@ -29,7 +32,6 @@ import { NightPanel } from '../night/NightPanel';
 import { chartComments, nightRevision } from '../night/mount';
 
 type Tab = 'scene' | 'steps' | 'review' | 'share' | 'history';
-const RANK: Record<Role, number> = { viewer: 0, reviewer: 1, editor: 2, owner: 3 };
 
 export interface WorkspaceProps {
   scene: SceneOut;
@@ -38,8 +40,8 @@ export interface WorkspaceProps {
 }
 
 function Workspace({ scene: initial, role }: WorkspaceProps) {
-  const canEdit = RANK[role] >= RANK.editor;
-  const canComment = RANK[role] >= RANK.reviewer;
+  const canEdit = can(role, 'scene.write');
+  const canComment = can(role, 'scene.comment');
   const saver = useMemo(() => {
     const save: SaveFn = async (body) => {
       try {
@@ -252,7 +254,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
 
   const night = (
     <div className="px-3 pb-6 pt-2" data-testid="night-section">
-    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
       <NightPanel
         source={{ kind: 'scene', id: scene.id }}
         timeZone={scene.site.timeZone ?? 'UTC'}
@@ -277,8 +279,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
       {st.status === 'conflict' && st.theirs && (
         <ConflictDialog mine={scene} theirs={st.theirs} dirty={st.dirty} onKeepMine={() => void saver.keepMine()} onTakeTheirs={() => saver.takeTheirs()} />
       )}
-      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel={canEdit ? 'Editor' : 'Scene panels'} />
-      {night}
+      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel={canEdit ? 'Editor' : 'Scene panels'} sheet={{ label: 'Night', content: night }} />
       {presenting !== null && (
         <Presenter scene={like} startIndex={presenting} onClose={() => setPresenting(null)} broadcastUrl={canEdit ? `/api/scenes/${scene.id}/presenter` : null} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
       )}

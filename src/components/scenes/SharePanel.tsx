@@ -2,11 +2,12 @@
 import { useId, useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiDelete, apiGet, apiPost, errorText } from '../../lib/client/api';
-import type { LinkOut, LinkRole } from '../../lib/client/types';
+import type { LinkOut } from '../../lib/contracts/link';
+import type { LinkRole } from '../../lib/contracts/roles';
 import { inputUtcToIso, timeAgo } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { CopyButton, INPUT, LABEL } from './bits';
+import { CopyButton, INPUT, LABEL } from './controls';
 
 export const embedSnippet = (origin: string, token: string, title: string) =>
   `<iframe src="${origin}/embed/${encodeURIComponent(token)}" title="${title.replace(/[&<>"']/g, '')}" width="800" height="500" style="border:0" allow="fullscreen" loading="lazy"></iframe>`;

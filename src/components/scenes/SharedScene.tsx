@@ -8,11 +8,13 @@ import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
 import { ApiError, apiGet, errorText } from '../../lib/client/api';
-import type { Anchor, LinkRole, PublicScene } from '../../lib/client/types';
+import type { Anchor } from '../../lib/contracts/comment';
+import type { LinkRole } from '../../lib/contracts/roles';
+import type { PublicScene } from '../../lib/contracts/scene';
 import { anchorFromPick, commentMarkers, formatInZone, sceneAtStep, toSceneLike } from '../../lib/client/scene-view';
 import { Sky, type PickedPoint } from './Sky';
-import { afterFirstFrame } from '../sphere/engine';
-import { Section, Tabs } from './bits';
+import { afterFirstFrame } from '../sphere/sky-adapter';
+import { Section, Tabs } from './controls';
 import { ExportPanel } from './ExportPanel';
 import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
@@ -182,7 +184,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
 
   const night = (
     <div className="px-3 pb-6 pt-2" data-testid="night-section">
-    <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
       <Suspense fallback={<p className="text-sm text-ink-300">Loading the night…</p>}>
       <NightPanel
         source={{ kind: 'shared', token }}
@@ -207,8 +209,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
 
   return (
     <>
-      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel="Steps and details" />
-      {night}
+      <SkyWorkspace strip={strip} sky={sky} drawer={drawer} drawerLabel="Steps and details" sheet={{ label: 'Night', content: night }} />
       {following && follow.state && (
         <AudienceStage scene={like} state={follow.state} connected={follow.connected} ended={follow.ended} onStop={() => setFollowing(false)} renderSky={(s) => <Sky scene={s} chrome="stage" />} />
       )}

@@ -1,10 +1,10 @@
 /** Targets: catalogue stars (by proper name, HR number or designation), solar-system bodies, custom RA/Dec. */
 import { useEffect, useId, useState } from 'react';
-import { BODY_NAMES, type Target } from '../../lib/scenes/scene';
+import { BODY_NAMES, type Target } from '../../lib/contracts/scene-doc';
 import { formatDecDms, formatRaHms, parseDec, parseRa } from '../../lib/imports/angles';
 import { newId } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from './bits';
+import { INPUT, LABEL } from './controls';
 import { TargetsImport } from './TargetsImport';
 
 /** What the CSV import needs: the scene, and how to sync with the server before and after. */

@@ -7,7 +7,7 @@ import { errorText, readError, request } from '../../lib/client/api';
 import { formatDecDms, formatRaHms } from '../../lib/imports/angles';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { LABEL } from './bits';
+import { LABEL } from './controls';
 
 export const MAX_UPLOAD_BYTES = 5 * 1024 * 1024;
 

@@ -1,7 +1,7 @@
 /** Every saved version with its author and time; restoring makes a new version with the old content. */
 import { useQuery, useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiGet, apiPost, errorText } from '../../lib/client/api';
-import type { SceneOut, VersionOut } from '../../lib/client/types';
+import type { SceneOut, VersionOut } from '../../lib/contracts/scene';
 import { timeAgo } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';

@@ -8,9 +8,11 @@ import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import type { OrbitControls as OrbitControlsImpl } from 'three-stdlib';
 import { useView, type ViewHandles, ViewContext, type Selection } from './context';
-import * as engine from './engine';
+import * as engine from './sky-adapter';
 import { altAzToEnu, enuToWorld, raySphereDirection, SPHERE_RADIUS, worldToEnu } from './geometry';
 import { Axes, Bodies, Envelope, Grid, Ground, Ring, Stars } from './layers';
+import { SkyDome } from './SkyDome';
+import { skyGradient } from './sky-colour';
 import { collectLabels, drawOverlay, type LabelItem } from './overlay';
 import { drawPins } from './pins';
 import { useStore } from './store';
@@ -328,11 +330,12 @@ function Renderer() {
   const sky = useMemo(() => ({ c: new THREE.Color(), alt: NaN }), []);
   useFrame(({ gl, scene, camera, size }) => {
     const t0 = performance.now();
-    // Background: a daylight or twilight tint from the Sun's altitude (USNO thresholds), so day reads as day.
+    // Behind the sky dome (and in the Sphere view): the zenith colour of this Sun altitude, darkened.
     const sunAlt = model.sun?.altDeg ?? -90;
-    if (sunAlt !== sky.alt) {
+    if (Math.abs(sunAlt - sky.alt) > 0.05 || Number.isNaN(sky.alt)) {
       sky.alt = sunAlt;
-      sky.c.set(sunAlt > -50 / 60 ? '#1d3557' : sunAlt > -6 ? '#142640' : sunAlt > -12 ? '#0c1529' : sunAlt > -18 ? '#080d1a' : '#05070d');
+      const z = skyGradient(sunAlt).zenith;
+      sky.c.setRGB(z[0] * 0.6, z[1] * 0.6, z[2] * 0.6, THREE.SRGBColorSpace);
       gl.setClearColor(sky.c);
     }
     gl.render(scene, camera);
@@ -386,6 +389,7 @@ function Layers() {
   const hasEnvelope = !!model.envelope;
   return (
     <>
+      <SkyDome />
       <Ground show={L.ground} />
       {L.altAzGrid && <Grid kind="altAzGrid" />}
       {L.raDecGrid && <Grid kind="raDecGrid" />}

@@ -6,10 +6,10 @@
  * embed). Mount with client:only="react".
  */
 import { Component, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
-import { DEFAULT_LAYERS, type Layers } from '../../lib/scenes/scene';
+import { DEFAULT_LAYERS, type Layers } from '../../lib/contracts/scene-doc';
 import { type CamState, type CommentAnchor, type PinLike, type UiState, type ViewHandles, ViewContext } from './context';
-import * as engine from './engine';
-import type { EnvelopeLike } from './engine';
+import * as engine from './sky-adapter';
+import type { EnvelopeLike } from './sky-adapter';
 import { formatHours } from './geometry';
 import { SkyModel, type TargetLike } from './model';
 import { FloatPanel } from './FloatPanel';
@@ -21,7 +21,7 @@ import { TimeStrip } from './TimeStrip';
 import SkyCanvas from './SkyCanvas';
 import { composeSnapshot } from './snapshot';
 import { Clock, createStore, useStore } from './store';
-import { formatOffset, formatUtc, formatWall, isoUtc } from './time';
+import { formatOffset, formatUtc, formatWall, isoUtc } from './clock';
 
 /**
  * Keeps the page working when the browser gives no WebGL (blocked, or no GPU and no software fallback):

@@ -8,7 +8,7 @@ import { usePref } from '../ui/persist';
 import { useView } from './context';
 import { jumpToNextEvent } from './next-event';
 import { useStore } from './store';
-import { formatOffset, formatWall, RATES, STEPS } from './time';
+import { formatOffset, formatWall, RATES, STEPS } from './clock';
 
 const btn =
   'inline-flex h-8 min-w-8 items-center justify-center rounded border border-slate-600 bg-slate-800/90 px-2 text-xs text-slate-100 hover:bg-slate-700 focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400 disabled:opacity-40';

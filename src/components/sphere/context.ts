@@ -1,9 +1,9 @@
 /** Shared, non-reactive handles of one SkyView: the model, the clock, the UI store and the camera state. */
 import { createContext, useContext } from 'react';
-import type { Layers } from '../../lib/scenes/scene';
+import type { Layers } from '../../lib/contracts/scene-doc';
 import type { SkyModel } from './model';
 import type { Clock, Store } from './store';
-import type { PointReadout } from './engine';
+import type { PointReadout } from './sky-adapter';
 
 export type ViewMode = 'observer' | 'sphere';
 

@@ -14,7 +14,7 @@ export type KeyAction =
   | { kind: 'clearSelection' }
   | { kind: 'help' };
 
-import { SIDEREAL_DAY_MS } from './time';
+import { SIDEREAL_DAY_MS } from './clock';
 
 export const MINUTE_MS = 60_000;
 export const HOUR_MS = 3_600_000;

@@ -7,7 +7,7 @@ import { useEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import type { LineMaterial } from 'three/examples/jsm/lines/LineMaterial.js';
 import { useView } from './context';
-import * as engine from './engine';
+import * as engine from './sky-adapter';
 import { altAzToEnu, buildGrid, enuListToWorld, enuToWorld, envelopeShell, envelopeTintFace, SPHERE_RADIUS, tintIndices, starSizePx, starTint, unitFromLonLat } from './geometry';
 import { bodyMaterial, patternLineMaterial, starMaterial } from './materials';
 import { RING_SEGMENTS } from './model';

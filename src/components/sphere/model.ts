@@ -4,8 +4,8 @@
  * plays); layers compare `version` in useFrame and refresh their buffers only when it moved.
  * No three.js here, so it is testable in Node.
  */
-import * as engine from './engine';
-import type { Catalogue, EnvelopeLike, SiteInput, SkyBody, SkyFrameLike } from './engine';
+import * as engine from './sky-adapter';
+import type { Catalogue, EnvelopeLike, SiteInput, SkyBody, SkyFrameLike } from './sky-adapter';
 import { altAzToEnu, angleDeg, greatCircle, mat3MulVec, smallCircle, unitFromLonLat } from './geometry';
 import type { CircleKey } from './styles';
 

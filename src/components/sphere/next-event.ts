@@ -2,7 +2,7 @@
  * "Next event" of the time bar: the earliest of sunrise, sunset and the twilights, and (when something is
  * selected) its rise, transit and set, after a given instant. Searches two days ahead.
  */
-import * as engine from './engine';
+import * as engine from './sky-adapter';
 import { selectedName, selectedTarget } from './panels';
 
 export interface NextEvent {

@@ -4,7 +4,7 @@
  * straight into the PNG snapshot.
  */
 import * as THREE from 'three';
-import type { Layers } from '../../lib/scenes/scene';
+import type { Layers } from '../../lib/contracts/scene-doc';
 import type { CommentAnchor, PinLike, Selection } from './context';
 import { altAzToEnu, enuToWorld, mat3MulVec, SPHERE_RADIUS, unitFromLonLat } from './geometry';
 import type { SkyModel } from './model';

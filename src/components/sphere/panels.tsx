@@ -4,14 +4,14 @@
  * React (card, summary) refresh at most twice a second.
  */
 import { useEffect, useRef, useState, type ReactNode } from 'react';
-import type { LayerKey } from '../../lib/scenes/scene';
+import type { LayerKey } from '../../lib/contracts/scene-doc';
 import { useView } from './context';
-import * as engine from './engine';
+import * as engine from './sky-adapter';
 import { altAzToEnu, altitudeWords, angleDeg, compassWord, formatDeg, formatDms, formatHours, formatSignedHours } from './geometry';
 import { bodyName } from './overlay';
 import { useStore } from './store';
 import { CIRCLE_STYLES, dashArray, GRID_STYLES, LEGEND, type CircleKey } from './styles';
-import { formatOffset, formatUtc, formatWall, fromLocalInputValue, SIDEREAL_DAY_MS, toLocalInputValue } from './time';
+import { formatOffset, formatUtc, formatWall, fromLocalInputValue, SIDEREAL_DAY_MS, toLocalInputValue } from './clock';
 
 const btn = 'rounded border border-slate-600 bg-slate-800 px-2 py-1 text-xs text-slate-100 hover:bg-slate-700 focus-visible:outline focus-visible:outline-2 focus-visible:outline-sky-400 disabled:opacity-40';
 

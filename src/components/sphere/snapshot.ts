@@ -2,7 +2,7 @@
  * PNG snapshot: the WebGL frame and the label overlay composited on a 2D canvas, with a caption (scene,
  * site, time in the zone and UTC, sidereal time, view) and the legend of what is shown, line patterns included.
  */
-import type { Layers } from '../../lib/scenes/scene';
+import type { Layers } from '../../lib/contracts/scene-doc';
 import { CIRCLE_KEYS, CIRCLE_STYLES, GRID_STYLES } from './styles';
 import { LABELS, SURFACE } from '../../lib/style/palette';
 

@@ -3,7 +3,7 @@
  * of the product): each great circle has a colour AND a line pattern, so the rings read in greyscale and
  * for colour-blind viewers. Patterns are on/off lengths in CSS pixels.
  */
-import type { LayerKey } from '../../lib/scenes/scene';
+import type { LayerKey } from '../../lib/contracts/scene-doc';
 
 import { BODIES, CIRCLE_KEYS as KEYS, CIRCLES, GRIDS, LABELS, PLAN, SURFACE, type CircleKey } from '../../lib/style/palette';
 

@@ -5,7 +5,7 @@
  * its body text scales with the screen (24 px and more at 1920 px wide). Fits a phone without scrolling.
  */
 import { useEffect, type ReactNode } from 'react';
-import type { Step } from '../../lib/client/types';
+import type { Step } from '../../lib/contracts/scene-doc';
 import { formatInZone } from '../../lib/client/scene-view';
 import { Markdown } from '../briefing/Markdown';
 import { useIdle } from './useIdle';

@@ -4,7 +4,7 @@
  * based on. A 409 stops autosaving and keeps both sides until the user chooses: keep mine (re-PATCH the
  * changed fields on the server's version), take theirs, or compare. Nothing is dropped silently.
  */
-import { EDITABLE_FIELDS, type EditableField, type SceneOut } from './types';
+import { EDITABLE_FIELDS, type EditableField, type SceneOut } from '../contracts/scene';
 
 export type SaveStatus = 'saved' | 'dirty' | 'saving' | 'conflict' | 'error';
 

@@ -1,5 +1,5 @@
 /** Field-by-field comparison of two scene documents (pure): the conflict dialog's "compare". */
-import { EDITABLE_FIELDS, type EditableField } from './types';
+import { EDITABLE_FIELDS, type EditableField } from '../contracts/scene';
 
 /** JSON with sorted object keys, so two equal documents always print the same. */
 export function stableStringify(v: unknown, indent?: number): string {

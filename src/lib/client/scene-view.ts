@@ -1,5 +1,7 @@
 /** Pure helpers between the scene document and what the view shows (steps, picks, comment markers). */
-import type { Anchor, Camera, CommentOut, Layers, Pin, SceneOut, Step } from './types';
+import type { Camera, Layers, Pin, Step } from '../contracts/scene-doc';
+import type { Anchor, CommentOut } from '../contracts/comment';
+import type { SceneOut } from '../contracts/scene';
 
 export interface SceneLike {
   title: string;

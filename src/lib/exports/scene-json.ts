@@ -7,7 +7,7 @@
  * is informational and ignored on import; a reader refuses any other formatVersion.
  */
 import { z } from 'zod';
-import { sceneDocSchema, type SceneOut } from '../server/scenes';
+import { sceneDocSchema, type SceneOut } from '../contracts/scene';
 
 export const SCENE_FORMAT = 'armilla-scene';
 export const SCENE_FORMAT_VERSION = 1;

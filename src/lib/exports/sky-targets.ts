@@ -5,10 +5,10 @@
  * observed (src/lib/sky/motion.ts, checked against ERFA pmsafe/atco13). A site may carry the IERS Earth
  * orientation values (UT1 − UTC, polar motion) for its date.
  */
-import type { Site, Target as SceneTarget } from '../scenes/scene';
+import type { Site, Target as SceneTarget } from '../contracts/scene-doc';
 import { findByHr, loadCatalogue, type SiteInput, type Target as SkyTarget } from '../sky';
 import { hasMotion, moveStar, movedRaDec, type SpaceMotion } from '../sky/motion';
-import { instantFromDate } from '../sky/time';
+import { instantFromDate } from '../sky/timescales';
 
 const JULIAN_YEAR_MS = 365.25 * 86400000;
 const J2000_MS = Date.UTC(2000, 0, 1, 12, 0, 0);

@@ -2,7 +2,7 @@
  * The CSV exports computed with the sky engine: positions of every target at one instant, and
  * visibility windows inside the envelope over a span. No database: a scene in, CSV text out.
  */
-import type { SceneOut } from '../server/scenes';
+import type { SceneOut } from '../contracts/scene';
 import { bodyPlace, evaluateEnvelope, observeAt, riseTransitSetDetailed, skyFrame, visibilityWindows, type Envelope, type WindowTarget } from '../sky';
 import { fixed, toCsv, type Cell } from './csv';
 import { cataloguePosition, siteInput, skyTarget } from './sky-targets';

@@ -3,7 +3,7 @@
  * (see chart.ts for the projection), the night's events, the Moon's phase, the targets and the cautions.
  * No DOM, no database: a scene in, plain data out.
  */
-import type { SceneOut } from '../server/scenes';
+import type { SceneOut } from '../contracts/scene';
 import {
   bodyPlace,
   BODY_NAMES,

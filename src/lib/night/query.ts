@@ -3,7 +3,7 @@
  * scene → night input step. Pure (zod + the sky engine); the routes parse, authorise and call.
  */
 import { z } from 'zod';
-import { isoUtc, type Site, type Target as SceneTarget } from '../scenes/scene';
+import { isoUtc, type Site, type Target as SceneTarget } from '../contracts/scene-doc';
 import { BODY_NAMES, type BodyName } from '../sky/bodies';
 import { MAX_NIGHT_SPAN_MS, sceneNight, type NightInput, type NightTarget } from '../sky/night';
 import type { Envelope } from '../sky/envelope';

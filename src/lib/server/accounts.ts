@@ -2,11 +2,11 @@
  * Accounts: sign-up, sign-in (with throttling), password reset and change, the caller's profile.
  * Routes parse and respond; the rules live here. Session cookies stay in ./auth.
  */
-import { createHash, randomBytes } from 'node:crypto';
 import { and, eq, gt, isNull, ne } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import { z } from 'zod';
 import { audit } from './audit';
+import { hashToken, newToken } from './auth/secret-token';
 import { dummyHash, hashPassword, verifyPassword } from './auth/password';
 import type { DbOrTx } from './db/client';
 import { memberships, passwordResets, rateLimits, sessions, teams, users } from './db/schema';
@@ -51,8 +51,6 @@ export interface PublicUser {
 // ---- tokens: the mail carries the token, the database only its SHA-256 ----
 
 /** 256 random bits, base64url. */
-export const newToken = () => randomBytes(32).toString('base64url');
-export const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
 // ---- throttling ----
 
@@ -141,7 +139,7 @@ export async function requestPasswordReset(db: DbOrTx, email: string, clientAddr
   if (!user) return;
   const token = newToken();
   await db.insert(passwordResets).values({
-    tokenHash: sha256(token),
+    tokenHash: hashToken(token),
     userId: user.id,
     expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000),
   });
@@ -158,7 +156,7 @@ export async function confirmPasswordReset(db: DbOrTx, input: z.infer<typeof res
     const rows = await tx
       .select({ userId: passwordResets.userId })
       .from(passwordResets)
-      .where(and(eq(passwordResets.tokenHash, sha256(input.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, now)))
+      .where(and(eq(passwordResets.tokenHash, hashToken(input.token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, now)))
       .limit(1);
     const userId = rows[0]?.userId;
     if (!userId) throw new HttpError(400, 'invalid_token', 'This reset link is invalid, used or expired; ask for a new one.', 'token');

@@ -8,27 +8,16 @@ import type { DbOrTx } from './db/client';
 import { comments, memberships, scenes, users } from './db/schema';
 import { audit } from './audit';
 import { badRequest, notFound } from './http';
-import type { Anchor, CommentCreateBody } from './scenes';
-import { docOf, writeTx } from './scenes.server';
+import type { Anchor, CommentCreateBody, CommentOut } from '../contracts/comment';
+
+export type { CommentOut };
+import { docOf, writeTx } from './scene-service';
 
 type CommentRow = typeof comments.$inferSelect;
 type SceneRow = typeof scenes.$inferSelect;
 
 export type CommentAuthor = { userId: string } | { guestName: string; linkId: string };
 
-export interface CommentOut {
-  id: string;
-  sceneId: string;
-  parentId: string | null;
-  author: { userId: string | null; name: string; guest: boolean };
-  body: string;
-  anchor: Anchor | null;
-  stepId: string | null;
-  resolved: boolean;
-  resolvedAt: string | null;
-  resolvedBy: string | null;
-  createdAt: string;
-}
 
 function commentOut(r: CommentRow, names: Map<string, string>, forGuest: boolean): CommentOut {
   const guest = r.authorUserId === null;

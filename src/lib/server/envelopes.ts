@@ -7,8 +7,8 @@ import { envelopes, scenes } from './db/schema';
 import { audit } from './audit';
 import { fromZod, notFound } from './http';
 import { authorize, type Action } from './policy';
-import { mergeEnvelope, teamEnvelopeSchema, type TeamEnvelopeJson } from './scenes';
-import { envelopeOf, writeTx } from './scenes.server';
+import { mergeEnvelope, teamEnvelopeSchema, type TeamEnvelopeJson } from '../contracts/envelope';
+import { envelopeOf, writeTx } from './scene-service';
 
 type EnvelopeRow = typeof envelopes.$inferSelect;
 

@@ -3,7 +3,7 @@
  * stored, and a request's token is found by hashing it and looking the hash up (no string compare
  * of secrets, nothing usable in a database leak).
  */
-import { createHash } from 'node:crypto';
+import { hashToken } from './auth/secret-token';
 import { and, asc, eq, isNull, lt, or, sql, type Placeholder } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/libsql';
 import { preparedReadsOf } from './db/prepared';
@@ -12,13 +12,13 @@ import type { DbOrTx } from './db/client';
 import { envelopes, scenes, shareLinks, type ShareRole } from './db/schema';
 import { audit } from './audit';
 import { badRequest, notFound } from './http';
-import { sceneStateColumns, writeTx, type SceneState } from './scenes.server';
+import { sceneStateColumns, writeTx, type SceneState } from './scene-service';
 
 type LinkRow = typeof shareLinks.$inferSelect;
 type SceneRow = typeof scenes.$inferSelect;
 
-export const newToken = () => nanoid(24);
-export const hashToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
+/** Share-link tokens are shorter than e-mailed ones (they end up in URLs people copy): 24 nanoid characters, 143 bits. */
+const newLinkToken = () => nanoid(24);
 export const shareUrl = (origin: string, token: string) => `${origin.replace(/\/+$/, '')}/s/${token}`;
 
 export function linkState(l: Pick<LinkRow, 'revokedAt' | 'expiresAt'>, now = Date.now()) {
@@ -49,7 +49,7 @@ export async function createLink(
   now = new Date(),
 ) {
   if (expiresAt && expiresAt.getTime() <= now.getTime()) throw badRequest('expiresAt: must be in the future', 'expiresAt');
-  const token = newToken();
+  const token = newLinkToken();
   const id = nanoid();
   await writeTx(db, async (tx) => {
     await tx.insert(shareLinks).values({ id, sceneId: scene.id, role, tokenHash: hashToken(token), createdBy: userId, createdAt: now, expiresAt });

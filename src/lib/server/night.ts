@@ -3,12 +3,12 @@
  * query is validated by the route; the work is charged to the caller's budget and the pure `nightData`
  * (src/lib/sky/night.ts) runs on the compute pool.
  */
-import type { SceneOut } from './scenes';
+import type { SceneOut } from '../contracts/scene';
 import { runCompute } from './compute';
 import { chargeWork, windowsWork } from './compute/budget';
 import { windowsGridStepSec } from '../sky/night';
 import { nightInput, type NightQuery } from '../night/query';
-import type { WorkPayer } from '../exports/responses';
+import type { WorkPayer } from './exports/responses';
 
 export async function nightAnswer(scene: SceneOut, q: NightQuery, payer: WorkPayer) {
   const input = nightInput(scene, q);

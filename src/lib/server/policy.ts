@@ -5,45 +5,11 @@
 import { and, eq } from 'drizzle-orm';
 import type { User } from 'lucia';
 import type { DbOrTx } from './db/client';
-import { memberships, type Role } from './db/schema';
+import { memberships } from './db/schema';
 import { HttpError, notFound, unauthorized } from './http';
+import { can, type Action, type Role } from '../contracts/roles';
 
-export type Action =
-  | 'team.read'
-  | 'team.manage'
-  | 'scene.read'
-  | 'scene.comment'
-  | 'comment.resolve'
-  | 'scene.write'
-  | 'scene.share'
-  | 'scene.delete'
-  | 'site.write'
-  | 'envelope.write';
-
-const RANK: Record<Role, number> = { viewer: 0, reviewer: 1, editor: 2, owner: 3 };
-
-const NEEDS: Record<Action, Role> = {
-  'team.read': 'viewer',
-  'scene.read': 'viewer',
-  'scene.comment': 'reviewer',
-  'comment.resolve': 'reviewer',
-  'scene.write': 'editor',
-  'scene.share': 'editor',
-  'scene.delete': 'editor',
-  'site.write': 'editor',
-  'envelope.write': 'editor',
-  'team.manage': 'owner',
-};
-
-/** Pure: may a member with `role` perform `action`? (`null` = not a member.) */
-export function can(role: Role | null, action: Action): boolean {
-  return role !== null && RANK[role] >= RANK[NEEDS[action]];
-}
-
-/** Share links carry a role of their own (viewer or reviewer). */
-export function linkCan(linkRole: 'viewer' | 'reviewer', action: Action): boolean {
-  return can(linkRole, action) && (action === 'scene.read' || action === 'scene.comment');
-}
+export type { Action };
 
 export function requireUser(locals: App.Locals): User {
   if (!locals.user) throw unauthorized();

@@ -7,17 +7,13 @@ import { eq } from 'drizzle-orm';
 import type { DbOrTx } from './db/client';
 import { presenterState, scenes } from './db/schema';
 import { badRequest } from './http';
-import { docOf, writeTx } from './scenes.server';
+import type { PresenterOut } from '../contracts/presenter';
+
+export type { PresenterOut };
+import { docOf, writeTx } from './scene-service';
 
 type SceneRow = typeof scenes.$inferSelect;
 
-export interface PresenterOut {
-  sceneId: string;
-  stepIndex: number;
-  stepId: string | null;
-  time: string | null;
-  updatedAt: string;
-}
 
 export async function readPresenter(db: DbOrTx, sceneId: string): Promise<PresenterOut | null> {
   const rows = await db.select().from(presenterState).where(eq(presenterState.sceneId, sceneId)).limit(1);

@@ -6,13 +6,13 @@
  * Share-link tokens are random at seed time and never printed (editors mint their own in the app).
  */
 import type { Tx } from './db/client';
-import { DEFAULT_LAYERS, type Pin, type Step, type Target } from '../scenes/scene';
+import { DEFAULT_LAYERS, type Pin, type Step, type Target } from '../contracts/scene-doc';
 import { createSite } from './sites';
 import { createEnvelope } from './envelopes';
-import { insertScene, sceneRow } from './scenes.server';
+import { insertScene, sceneRow } from './scene-service';
 import { addComment } from './comments';
 import { createLink } from './links';
-import type { TeamEnvelopeJson } from './scenes';
+import type { TeamEnvelopeJson } from '../contracts/envelope';
 
 export interface DemoSceneContext {
   teamId: string;

@@ -7,8 +7,8 @@ import { sites } from './db/schema';
 import { audit } from './audit';
 import { notFound } from './http';
 import { authorize, type Action } from './policy';
-import { siteSchema, type Site } from '../scenes/scene';
-import { writeTx } from './scenes.server';
+import { siteSchema, type Site } from '../contracts/scene-doc';
+import { writeTx } from './scene-service';
 
 type SiteRow = typeof sites.$inferSelect;
 

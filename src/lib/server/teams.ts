@@ -13,7 +13,7 @@ import { HttpError, notFound } from './http';
 import { authorize } from './policy';
 import { linkOrigin, sendMail } from './mail';
 import { invitationMail } from './mail/templates';
-import { newToken, sha256 } from './accounts';
+import { hashToken, newToken } from './auth/secret-token';
 
 export interface TeamSummary {
   id: string;
@@ -169,7 +169,7 @@ export async function invite(
     if (existing.length) throw new HttpError(409, 'already_member', 'This person is a member of the team already.', 'email');
     await tx.delete(invitations).where(and(eq(invitations.teamId, teamId), eq(invitations.email, input.email), isNull(invitations.acceptedAt)));
     await tx.insert(invitations).values({
-      id, tokenHash: sha256(token), teamId, email: input.email, role: input.role, invitedBy: actor.id, createdAt: now, expiresAt,
+      id, tokenHash: hashToken(token), teamId, email: input.email, role: input.role, invitedBy: actor.id, createdAt: now, expiresAt,
     });
     await audit(tx, { teamId, userId: actor.id, action: 'member.invite', subjectType: 'invitation', subjectId: id, detail: { email: input.email, role: input.role } });
     return (await tx.select({ name: teams.name }).from(teams).where(eq(teams.id, teamId)).limit(1))[0]!.name;
@@ -213,7 +213,7 @@ export async function previewInvitation(db: DbOrTx, token: string): Promise<Invi
     .from(invitations)
     .innerJoin(teams, eq(teams.id, invitations.teamId))
     .leftJoin(users, eq(users.id, invitations.invitedBy))
-    .where(and(eq(invitations.tokenHash, sha256(token)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
+    .where(and(eq(invitations.tokenHash, hashToken(token)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, new Date())))
     .limit(1);
   const r = rows[0];
   return r ? { ...r, expiresAt: r.expiresAt.toISOString() } : null;
@@ -229,7 +229,7 @@ export async function acceptInvitation(db: DbOrTx, user: User, token: string): P
     const rows = await tx
       .select()
       .from(invitations)
-      .where(and(eq(invitations.tokenHash, sha256(token)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, now)))
+      .where(and(eq(invitations.tokenHash, hashToken(token)), isNull(invitations.acceptedAt), gt(invitations.expiresAt, now)))
       .limit(1);
     const inv = rows[0];
     if (!inv) throw new HttpError(404, 'not_found', 'This invitation is invalid, used or expired.');

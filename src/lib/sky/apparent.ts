@@ -10,10 +10,10 @@
  * Earth's barycentric state and heliocentric position come from astronomy-engine (VSOP87 based).
  * Check: reference-values.md E1–E4 (atco13) to well under 1″.
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 import { ARCSEC, DEG, RAD, type Mat3, identity, mat3, mul, mulVec, mulVecT, rotX, rotY, wrap12, wrap24, wrap360 } from './math';
 import { C_AU_PER_DAY, EARTH_ROT_RAD_PER_S, SUN_SCHWARZSCHILD_AU, WGS84_A_M, WGS84_F, AU_M } from './constants';
-import { earthRotationAngleDeg, gastHours, gmstHours, instantFromDate } from './time';
+import { earthRotationAngleDeg, gastHours, gmstHours, instantFromDate } from './timescales';
 import { enuFromOfDateForSite, npbMatrix, type SiteInput } from './frames';
 import { hasMotion, moveStar, type SpaceMotion } from './motion';
 import { STANDARD_CONSTANTS, apparentAltitudeDeg, type RefractionConstants, type RefractionMode } from './refraction';

@@ -9,7 +9,7 @@
  * engine and given diurnal aberration here; within 2″ of DE405.
  * Light deflection is neglected for bodies (< 0.1″ beyond 5° from the Sun).
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 import { DEG, RAD, wrap360 } from './math';
 import { KM_PER_AU, MOON_RADIUS_KM } from './constants';
 import { aberrate, addDiurnalAberration, describeEnu, skyFrame, type HorizontalPlace, type SkyFrame } from './apparent';

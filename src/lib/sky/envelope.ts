@@ -10,38 +10,24 @@
  *
  * A margin is the signed distance to a limit in its own unit: ≥ 0 inside, < 0 violated.
  */
-import { z } from 'zod';
 import { DEG, RAD, wrap360 } from './math';
-import { boundedArray } from '../bounded-array';
 
-const finite = z.number().finite();
-const az = finite.min(0, 'azimuth must be 0–360').max(360, 'azimuth must be 0–360');
-const alt = finite.min(-90, 'altitude must be −90–90').max(90, 'altitude must be −90–90');
-const opt = <T extends z.ZodTypeAny>(t: T) => t.nullish().transform((v) => (v === null ? undefined : v));
-
-export const envelopeSchema = z
-  .object({
-    name: opt(z.string().max(200)),
-    minAltitude: opt(alt),
-    maxAltitude: opt(alt),
-    azimuthRanges: opt(boundedArray(z.tuple([az, az]), 360)),
-    keyholeRadius: opt(finite.min(0).max(90)),
-    sunAvoidance: opt(finite.min(0).max(180)),
-    moonAvoidance: opt(finite.min(0).max(180)),
-    horizonMask: opt(boundedArray(z.tuple([az, alt]), 36000)),
-    hourAngleLimits: opt(
-      z.tuple([finite.min(-12).max(12), finite.min(-12).max(12)]).refine((v) => v[0] <= v[1], 'hourAngleLimits: min must not exceed max'),
-    ),
-    declinationLimits: opt(
-      z.tuple([finite.min(-90).max(90), finite.min(-90).max(90)]).refine((v) => v[0] <= v[1], 'declinationLimits: min must not exceed max'),
-    ),
-  })
-  .refine((e) => e.minAltitude === undefined || e.maxAltitude === undefined || e.minAltitude <= e.maxAltitude, {
-    message: 'minAltitude must not exceed maxAltitude',
-    path: ['maxAltitude'],
-  });
-
-export type Envelope = z.infer<typeof envelopeSchema>;
+/**
+ * A validated envelope (the zod schema that checks API input is src/lib/contracts/envelope.ts; the
+ * engine stays free of validation libraries). Missing fields mean "no limit".
+ */
+export interface Envelope {
+  name?: string | undefined;
+  minAltitude?: number | undefined;
+  maxAltitude?: number | undefined;
+  azimuthRanges?: [number, number][] | undefined;
+  keyholeRadius?: number | undefined;
+  sunAvoidance?: number | undefined;
+  moonAvoidance?: number | undefined;
+  horizonMask?: [number, number][] | undefined;
+  hourAngleLimits?: [number, number] | undefined;
+  declinationLimits?: [number, number] | undefined;
+}
 
 export type LimitName =
   | 'minAltitude' | 'maxAltitude' | 'azimuthRanges' | 'keyholeRadius' | 'sunAvoidance' | 'moonAvoidance'

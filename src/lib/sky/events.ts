@@ -11,7 +11,7 @@
  * 10 minutes and each sign change is refined by bisection to < 0.05 s. Two crossings
  * closer together than the step (a grazing target) can be missed.
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 import { RAD } from './math';
 import { H0_STAR_DEG, H0_SUN_DEG, MOON_RADIUS_KM } from './constants';
 import { apparentFromIcrs, skyFrame, type SkyFrame } from './apparent';

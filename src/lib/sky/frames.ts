@@ -16,7 +16,7 @@
 import { ARCSEC, DEG, RAD, type Mat3, identity, mat3, mul, mulVec, rotX, rotY, rotZ, transpose, unitFromLonLat, wrap360 } from './math';
 import { nutationIau2000b, meanObliquityRad } from './nutation';
 import { DAYS_PER_CENTURY } from './constants';
-import { gastHours, instantFromDate } from './time';
+import { gastHours, instantFromDate } from './timescales';
 
 export type FrameName = 'icrs' | 'ofDate' | 'horizontal' | 'eclipticJ2000' | 'eclipticOfDate' | 'galactic';
 export const FRAME_NAMES: readonly FrameName[] = ['icrs', 'ofDate', 'horizontal', 'eclipticJ2000', 'eclipticOfDate', 'galactic'];

@@ -12,8 +12,8 @@ export {
 export {
   jdFromDate, dateFromJd, deltaTSeconds, earthRotationAngleDeg, gmstHours, gastHours, lmstHours, lastHours, instantFromDate,
   utDaysFromDate, J2000_JD,
-} from './time';
-export type { Instant } from './time';
+} from './timescales';
+export type { Instant } from './timescales';
 export { nutationIau2000b, meanObliquityRad, trueObliquityDeg } from './nutation';
 export { skyFrame, observeIcrs, apparentFromIcrs, describeEnu } from './apparent';
 export type { SkyFrame, HorizontalPlace, ApparentPlace } from './apparent';
@@ -37,7 +37,7 @@ export type { EventKind, SkyEvent, RiseTransitSetResult, MoonPhaseKind } from '.
 export { airmassKastenYoung, airmassPickering, airmassSecant } from './airmass';
 export { separationDeg, positionAngleDeg } from './angles';
 export { constellationOf } from './constellation';
-export { envelopeSchema, evaluateEnvelope, maskAltitudeDeg, prepareMask, azimuthMarginDeg } from './envelope';
+export { evaluateEnvelope, maskAltitudeDeg, prepareMask, azimuthMarginDeg } from './envelope';
 export type { Envelope, LimitName, LimitCheck, Pointing, EnvelopeEvaluation, EnvelopeContext } from './envelope';
 export { evaluateEnvelopeAt } from './pointing';
 export { visibilityWindows } from './windows';

@@ -16,7 +16,7 @@
  *   last setting to its next rising; if it is up, the coming night. Where the Sun does not set or rise
  *   within a day (polar day or night), the 24 h centred on the scene time.
  */
-import { Astronomy } from './engine';
+import { Astronomy } from './astronomy';
 import { RAD, wrap360 } from './math';
 import { skyFrame, type SkyFrame } from './apparent';
 import { bodyVector, type BodyName } from './bodies';

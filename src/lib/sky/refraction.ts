@@ -8,10 +8,14 @@
  *   §4.31) and the Hohenkerk & Sinclair (1985) saturation vapour pressure — the formulation IAU SOFA
  *   uses in refco/atioq, including its Newton step from the true to the observed zenith distance.
  *   Check: ray-traced values of reference-values.md A17 to 0.1″; E1–E4 to 0.05″.
- * - Below 3°: Saemundsson (1986, Sky & Telescope 72, 70) for a true altitude, scaled by
+ * - Below 5°: Saemundsson (1986, Sky & Telescope 72, 70) for a true altitude, scaled by
  *   (P / 1010 hPa) · (283 K / T), the usual pressure/temperature factor (Meeus ch. 16). The A tan z
  *   form fails near the horizon; Saemundsson gives 34′ there, the value of the rise/set conventions.
- * - Between 3° and 10° the two are blended linearly in altitude (they differ by 10–25″ there).
+ * - Between 5° and 10° the two are blended linearly in altitude (they differ by 10–25″ there; below 5°
+ *   the tan z form is far off: 673″ against 822″ at 3°, so the blend starts at 5°).
+ *   Check (refraction.test.ts): at true 0°, 2°, 5° the product is the published formula (Meeus eq. 16.4,
+ *   astronomia's implementation) × the factor; at apparent 0°, 2°, 5° within 0.1′ of Bennett's (eq. 16.3
+ *   with Meeus's correction), the formula Sæmundsson fitted.
  * - Below −1° refraction is tapered linearly to 0 at the nadir so the mapping stays monotonic.
  *
  * Height: the 'standard' model does NOT scale the pressure with the site's height, because the API
@@ -97,7 +101,7 @@ export function saemundssonArcmin(trueAltDeg: number): number {
   return 1.02 / Math.tan((trueAltDeg + 10.3 / (trueAltDeg + 5.11)) * DEG);
 }
 
-const LOW_DEG = 3;
+const LOW_DEG = 5;
 const HIGH_DEG = 10;
 const TAPER_DEG = -1;
 

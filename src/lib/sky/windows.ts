@@ -12,7 +12,7 @@
  * the span), `openedBy` the limit that was violated just before it began ('span-start').
  */
 import { hasMotion, moveStar, movedRaDec, type SpaceMotion } from './motion';
-import { instantFromDate } from './time';
+import { instantFromDate } from './timescales';
 import { RAD } from './math';
 import { SUN_SCHWARZSCHILD_AU } from './constants';
 import { skyFrame, type SkyFrame } from './apparent';

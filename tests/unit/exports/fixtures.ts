@@ -1,4 +1,4 @@
-import type { SceneOut } from '../../../src/lib/server/scenes';
+import type { SceneOut } from '../../../src/lib/contracts/scene';
 
 /** Sirius, ICRS α 06h45m08.91728s δ −16°42′58.0171″ — the position of reference-values.md E1 (ERFA atco13). */
 export const SIRIUS_RA = (6 + 45 / 60 + 8.91728 / 3600) * 15;

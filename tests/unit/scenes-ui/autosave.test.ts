@@ -1,6 +1,6 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { Autosave, patchBody, type SaveFn } from '../../../src/lib/client/autosave';
-import type { SceneOut } from '../../../src/lib/client/types';
+import type { SceneOut } from '../../../src/lib/contracts/scene';
 
 function scene(over: Partial<SceneOut> = {}): SceneOut {
   return {

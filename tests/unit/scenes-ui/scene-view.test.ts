@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { anchorFromPick, inputUtcToIso, isoToInputUtc, moveItem, pinPointFromPick, sceneAtStep, threads, timeAgo, type SceneLike } from '../../../src/lib/client/scene-view';
-import type { CommentOut } from '../../../src/lib/client/types';
+import type { CommentOut } from '../../../src/lib/contracts/comment';
 
 const base: SceneLike = {
   title: 't', site: { name: 's', lat: 40, lon: -105, height: 0, timeZone: 'UTC' }, time: '2026-03-20T19:30:00Z',

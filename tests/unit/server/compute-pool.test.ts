@@ -11,7 +11,7 @@ import { buildComputeWorker } from '../../../src/lib/server/compute/build.mjs';
 import { ComputePool, type ComputeConfig } from '../../../src/lib/server/compute';
 import { runJob } from '../../../src/lib/server/compute/jobs';
 import { HttpError } from '../../../src/lib/server/http';
-import { windowsBodySchema } from '../../../src/lib/sky/api';
+import { windowsBodySchema } from '../../../src/lib/server/sky-api';
 
 let dir = '';
 let workerFile = '';

@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { can, linkCan, type Action } from '../../../src/lib/server/policy';
+import { can, linkCan, type Action } from '../../../src/lib/contracts/roles';
 import { ROLES, type Role } from '../../../src/lib/server/db/schema';
 
 // The expected table is the product brief's role list ("editors edit, reviewers comment, viewers watch

@@ -3,7 +3,7 @@ import { apparentFromIcrs, observeIcrs, skyFrame } from '../../../src/lib/sky/ap
 import { geocentricApparent } from '../../../src/lib/sky/bodies';
 import { precessionMatrix } from '../../../src/lib/sky/frames';
 import { mat3, mulVec, RAD } from '../../../src/lib/sky/math';
-import { J2000_JD } from '../../../src/lib/sky/time';
+import { J2000_JD } from '../../../src/lib/sky/timescales';
 import { arcsec, dAngle, dateFromJdTT, dms, hms } from './helpers';
 
 /**

@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import ref from '../../reference/earth-orientation.json';
 import { observe } from '../../../src/lib/sky/observe';
-import { instantFromDate } from '../../../src/lib/sky/time';
+import { instantFromDate } from '../../../src/lib/sky/timescales';
 
 const D = Math.PI / 180;
 const sep = (az1: number, alt1: number, az2: number, alt2: number) =>

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { azimuthMarginDeg, envelopeSchema, evaluateEnvelope, maskAltitudeDeg, prepareMask } from '../../../src/lib/sky/envelope';
+import { azimuthMarginDeg, evaluateEnvelope, maskAltitudeDeg, prepareMask } from '../../../src/lib/sky/envelope';
+import { envelopeSchema } from '../../../src/lib/contracts/envelope';
 import { visibilityWindows } from '../../../src/lib/sky/windows';
 import { riseTransitSet } from '../../../src/lib/sky/events';
 import { observe } from '../../../src/lib/sky/observe';

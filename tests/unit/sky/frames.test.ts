@@ -8,7 +8,7 @@ import {
   icrsFromGalactic, precessionMatrix, anglesInFrame, vectorInFrame,
 } from '../../../src/lib/sky/frames';
 import { nutationIau2000b } from '../../../src/lib/sky/nutation';
-import { gmstHours, J2000_JD } from '../../../src/lib/sky/time';
+import { gmstHours, J2000_JD } from '../../../src/lib/sky/timescales';
 import { angleBetween, mat3, mul, mulVec, RAD, DEG } from '../../../src/lib/sky/math';
 import { dAngle, dms, hms, rng } from './helpers';
 

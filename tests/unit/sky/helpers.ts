@@ -1,5 +1,5 @@
 /** Shared helpers for the sky tests: sexagesimal input, angle differences, a TT → Date converter. */
-import { deltaTSeconds, dateFromUtDays, J2000_JD } from '../../../src/lib/sky/time';
+import { deltaTSeconds, dateFromUtDays, J2000_JD } from '../../../src/lib/sky/timescales';
 
 export const hms = (h: number, m: number, s: number) => (h + m / 60 + s / 3600) * 15;
 export const dms = (sign: 1 | -1, d: number, m: number, s: number) => sign * (d + m / 60 + s / 3600);

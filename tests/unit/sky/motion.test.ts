@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import ref from '../../reference/motion.json';
 import { moveStar, movedRaDec } from '../../../src/lib/sky/motion';
 import { observe } from '../../../src/lib/sky/observe';
-import { instantFromDate } from '../../../src/lib/sky/time';
+import { instantFromDate } from '../../../src/lib/sky/timescales';
 import { customPositionAt } from '../../../src/lib/exports/sky-targets';
 
 const D = Math.PI / 180;

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { nightData, sceneNight, MAX_NIGHT_SPAN_MS } from '../../../src/lib/sky/night';
 import { visibilityWindows } from '../../../src/lib/sky/windows';
-import { windowsStepSec } from '../../../src/lib/sky/api';
+import { windowsStepSec } from '../../../src/lib/server/sky-api';
 
 const site = { name: 'Test site', lat: 37.2, lon: -3.6, height: 2800, timeZone: 'Europe/Madrid' };
 const siteInput = { latDeg: 37.2, lonDeg: -3.6, heightM: 2800 };

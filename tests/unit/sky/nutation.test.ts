@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { meanObliquityRad, nutationIau2000b, trueObliquityDeg } from '../../../src/lib/sky/nutation';
-import { J2000_JD } from '../../../src/lib/sky/time';
+import { J2000_JD } from '../../../src/lib/sky/timescales';
 
 const AS = 180 / Math.PI * 3600;
 

@@ -3,6 +3,10 @@ import {
   apparentAltitudeDeg, bennettArcmin, refractionAtObservedZenithArcsec, refractionConstants, saemundssonArcmin, trueAltitudeDeg,
   refractionForTrueAltitudeDeg, isaPressureHPa,
 } from '../../../src/lib/sky/refraction';
+import { STANDARD_CONSTANTS } from '../../../src/lib/sky/refraction';
+import { saemundsson as saemundssonAstronomia, bennett2 } from 'astronomia/refraction';
+
+const D = Math.PI / 180;
 
 describe('refraction', () => {
   it('A16: Bennett at apparent 0.5° and Saemundsson at true 33.246′ (Meeus Ex. 16.a)', () => {
@@ -19,8 +23,23 @@ describe('refraction', () => {
     expect(Math.abs(refractionAtObservedZenithArcsec(70, { ...k, lowFactor: 1 }) - 158.63)).toBeLessThan(0.5);
   });
 
-  it('about 34′ at the horizon (USNO rise/set convention; common practice)', () => {
-    expect(Math.abs(refractionForTrueAltitudeDeg(-0.6) * 60 - 34)).toBeLessThan(3);
+  // Low altitudes (the product's model there is Sæmundsson's formula × (P/1010 hPa)(283 K/T)): check values from the
+  // published formulas as the astronomia package implements them (Meeus, Astronomical Algorithms, eqs 16.3, 16.4).
+  const factor = STANDARD_CONSTANTS.lowFactor;
+  for (const h of [0, 2, 5]) {
+    it(`true altitude ${h}°: Sæmundsson (1986; Meeus eq. 16.4, astronomia refraction.saemundsson) × the P/T factor, ±0.1″`, () => {
+      const want = (saemundssonAstronomia(h * D) / D) * 3600 * factor;
+      expect(Math.abs(refractionForTrueAltitudeDeg(h) * 3600 - want)).toBeLessThan(0.1);
+    });
+    it(`apparent altitude ${h}°: within 0.1′ of Bennett (1982; Meeus eq. 16.3 with his correction, astronomia refraction.bennett2) × the factor`, () => {
+      const trueAlt = trueAltitudeDeg(h);
+      const want = (bennett2(h * D) / D) * 3600 * factor;
+      expect(Math.abs((h - trueAlt) * 3600 - want)).toBeLessThan(6);
+    });
+  }
+  it('the horizon value: 34–35′ at apparent altitude 0° (USNO rise/set convention uses 34′; common practice)', () => {
+    expect((0 - trueAltitudeDeg(0)) * 60).toBeGreaterThan(34);
+    expect((0 - trueAltitudeDeg(0)) * 60).toBeLessThan(35);
   });
 
   it('is continuous and monotonic from −5° to 90°, and inverts to 1e-8°', () => {

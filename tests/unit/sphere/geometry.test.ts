@@ -8,7 +8,7 @@ import {
   altAzToEnu, angleDeg, buildGrid, enuListToWorld, enuToAltAz, enuToWorld, greatCircle, raySphereDirection, ringNormal, ringPlanarity,
   smallCircle, SPHERE_RADIUS, worldToEnu, formatHours, formatDms, compassWord, envelopeShell, envelopeTintFace, tintIndices,
 } from '../../../src/components/sphere/geometry';
-import { SIDEREAL_PER_SOLAR, SIDEREAL_DAY_MS, fromLocalInputValue, toLocalInputValue, wallTimeToUtc, zoneOffsetMinutes } from '../../../src/components/sphere/time';
+import { SIDEREAL_PER_SOLAR, SIDEREAL_DAY_MS, fromLocalInputValue, toLocalInputValue, wallTimeToUtc, zoneOffsetMinutes } from '../../../src/components/sphere/clock';
 
 const DEG = Math.PI / 180;
 // Invented test sites (not real observatories).

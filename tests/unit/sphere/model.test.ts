@@ -3,7 +3,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import * as sky from '../../../src/lib/sky';
-import * as engine from '../../../src/components/sphere/engine';
+import * as engine from '../../../src/components/sphere/sky-adapter';
 import { altAzToEnu, angleDeg } from '../../../src/components/sphere/geometry';
 import { SkyModel } from '../../../src/components/sphere/model';
 

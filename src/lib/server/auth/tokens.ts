@@ -15,7 +15,7 @@ import { apiTokens, users } from '../db/schema';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { rateLimit } from '../rate-limit';
-import { writeTx } from '../scenes.server';
+import { writeTx } from '../scene-service';
 import { MAX_TOKENS_PER_USER, type TokenCreate, type TokenOut, type TokenScope } from '../../contracts/tokens';
 
 const PREFIX = 'arm_';

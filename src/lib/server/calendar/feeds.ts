@@ -9,7 +9,7 @@ import type { DbOrTx } from '../db/client';
 import { calendarFeeds, scenes, teams } from '../db/schema';
 import { audit } from '../audit';
 import { notFound } from '../http';
-import { writeTx } from '../scenes.server';
+import { writeTx } from '../scene-service';
 import { teamFeedCalendar, type FeedScene } from './scene-calendar';
 
 const hash = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');

@@ -9,7 +9,7 @@
  * the scene's version and DTSTAMP its last change, so the same scene always gives the same file.
  */
 import ical, { type ICalCalendar } from 'ical-generator';
-import type { SceneOut } from '../scenes';
+import type { SceneOut } from '../../contracts/scene';
 import { sceneNight, nightData, siteInputOf } from '../../sky/night';
 import { skyEvents, type EventKind } from '../../sky/events';
 import { nightInput } from '../../night/query';

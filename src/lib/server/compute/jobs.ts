@@ -6,11 +6,11 @@
  * no functions. A job signals a problem of its input by returning it (see `sceneFile`), not by throwing:
  * errors lose their fields on the way back from a thread.
  */
-import { windowsResponse, type WindowsBody } from '../../sky/api';
+import { windowsResponse, type WindowsBody } from '../sky-api';
 import { positionsCsv, windowsCsv } from '../../exports/tables';
 import { buildHandout } from '../../handout/handout';
 import { sceneFileSchema } from '../../exports/scene-json';
-import type { SceneOut } from '../scenes';
+import type { SceneOut } from '../../contracts/scene';
 import { nightData, type NightInput } from '../../sky/night';
 
 export interface ComputeIssue {

@@ -6,7 +6,7 @@
  */
 import { createHash } from 'node:crypto';
 import { Resvg } from '@resvg/resvg-js';
-import type { SceneOut } from '../scenes';
+import type { SceneOut } from '../../contracts/scene';
 import { buildChart } from '../../handout/handout';
 import { chartSvg } from '../../handout/chart-svg';
 import { DAYLIGHT, daylightOf } from '../../style/palette';

@@ -1,7 +1,7 @@
 import { db } from '../../../lib/server/db';
 import { json, parseJson, route } from '../../../lib/server/http';
 import { authorize, requireUser } from '../../../lib/server/policy';
-import { commentPatchSchema } from '../../../lib/server/scenes';
+import { commentPatchSchema } from '../../../lib/contracts/comment';
 import { commentWithScene, setResolved } from '../../../lib/server/comments';
 
 /** Reviewer+: `{resolved: true | false}`. */

@@ -1,7 +1,7 @@
 import { db } from '../../../lib/server/db';
 import { json, route } from '../../../lib/server/http';
 import { requireUser } from '../../../lib/server/policy';
-import { importSceneFile, readSceneImport } from '../../../lib/exports/scene-import.server';
+import { importSceneFile, readSceneImport } from '../../../lib/server/imports/scene-file';
 
 /**
  * An `armilla-scene` file (JSON body with `teamId`, or multipart `file` + `teamId`) → 201 `{scene}`, a new

@@ -2,8 +2,8 @@ import { z } from 'zod';
 import { db } from '../../../lib/server/db';
 import { json, parseJson, parseQuery, route } from '../../../lib/server/http';
 import { requireUser } from '../../../lib/server/policy';
-import { sceneCreateSchema } from '../../../lib/server/scenes';
-import { createScene, listScenes } from '../../../lib/server/scenes.server';
+import { sceneCreateSchema } from '../../../lib/contracts/scene';
+import { createScene, listScenes } from '../../../lib/server/scene-service';
 
 const listQuery = z.object({ teamId: z.string().min(1).max(64).optional() });
 

@@ -1,7 +1,7 @@
 import { db } from '../../../lib/server/db';
 import { json, noContent, parseJson, route } from '../../../lib/server/http';
 import { requireUser } from '../../../lib/server/policy';
-import { sitePatchSchema } from '../../../lib/server/scenes';
+import { sitePatchSchema } from '../../../lib/contracts/site';
 import { deleteSite, siteFor, siteOut, updateSite } from '../../../lib/server/sites';
 
 export const GET = route(async ({ locals, params }) => {

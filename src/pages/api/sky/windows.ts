@@ -7,7 +7,7 @@ import { clientAddress, json, parseJson, route } from '../../../lib/server/http'
 import { rateLimit } from '../../../lib/server/rate-limit';
 import { runCompute } from '../../../lib/server/compute';
 import { chargeWork, windowsWork } from '../../../lib/server/compute/budget';
-import { MAX_SPAN_DAYS, MAX_TARGETS, windowsBodySchema, windowsStepSec } from '../../../lib/sky/api';
+import { MAX_SPAN_DAYS, MAX_TARGETS, windowsBodySchema, windowsStepSec } from '../../../lib/server/sky-api';
 
 /** A full request (2,000 targets, 31 days, the envelope's horizon mask) is far below this. */
 const MAX_WINDOWS_BODY_BYTES = 1_000_000;

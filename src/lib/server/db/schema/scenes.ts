@@ -4,11 +4,12 @@ import { teams } from './teams';
 
 /**
  * Scenes and what hangs off them. JSON columns are typed loosely here (`unknown`) on purpose:
- * src/lib/server/scenes.server.ts validates every one with zod on the way in and on the way out.
+ * src/lib/server/scene-service.ts validates every one with zod on the way in and on the way out.
  */
 
-export const SHARE_ROLES = ['viewer', 'reviewer'] as const;
-export type ShareRole = (typeof SHARE_ROLES)[number];
+import { LINK_ROLES as SHARE_ROLES, type LinkRole as ShareRole } from '../../../contracts/roles';
+
+export { SHARE_ROLES, type ShareRole };
 
 /** A team's named places; a scene copies the site it was made from (so editing a site never moves old scenes). */
 export const sites = sqliteTable(

@@ -1,8 +1,9 @@
 import { sqliteTable, text, integer, index, primaryKey } from 'drizzle-orm/sqlite-core';
 import { users } from './accounts';
 
-export const ROLES = ['owner', 'editor', 'reviewer', 'viewer'] as const;
-export type Role = (typeof ROLES)[number];
+import { ROLES, type Role } from '../../../contracts/roles';
+
+export { ROLES, type Role };
 
 export const teams = sqliteTable('teams', {
   id: text().primaryKey(),

@@ -4,7 +4,7 @@ import { requireUser } from '../../../../lib/server/policy';
 import { envelopeFor, updateEnvelope } from '../../../../lib/server/envelopes';
 import { FileError } from '../../../../lib/imports/csv';
 import { HORIZON_CONVENTIONS, parseHorizonCsv, type HorizonConvention } from '../../../../lib/imports/horizon-csv';
-import { fileErrorResponse, readUpload, rowErrors } from '../../../../lib/imports/upload';
+import { fileErrorResponse, readUpload, rowErrors } from '../../../../lib/server/upload';
 
 const MAX_HORIZON_BYTES = 1024 * 1024;
 

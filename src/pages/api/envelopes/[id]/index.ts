@@ -1,7 +1,7 @@
 import { db } from '../../../../lib/server/db';
 import { json, noContent, parseJson, route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
-import { envelopePatchSchema } from '../../../../lib/server/scenes';
+import { envelopePatchSchema } from '../../../../lib/contracts/envelope';
 import { deleteEnvelope, envelopeFor, envelopeOut, updateEnvelope } from '../../../../lib/server/envelopes';
 
 export const GET = route(async ({ locals, params }) => {

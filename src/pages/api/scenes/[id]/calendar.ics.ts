@@ -3,7 +3,7 @@ import { db } from '../../../../lib/server/db';
 import { route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
 import { publicOrigin } from '../../../../lib/server/links';
-import { sceneForMember } from '../../../../lib/exports/exports.server';
+import { sceneForMember } from '../../../../lib/server/exports/vo-targets';
 import { icsResponse, sceneCalendar } from '../../../../lib/server/calendar/scene-calendar';
 
 export const GET = route(async ({ locals, params, url }) => {

@@ -1,8 +1,8 @@
 import { db } from '../../../../lib/server/db';
 import { json, parseJson, route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
-import { commentCreateSchema } from '../../../../lib/server/scenes';
-import { sceneFor } from '../../../../lib/server/scenes.server';
+import { commentCreateSchema } from '../../../../lib/contracts/comment';
+import { sceneFor } from '../../../../lib/server/scene-service';
 import { addComment, listComments, notifyComment } from '../../../../lib/server/comments';
 import { publicOrigin } from '../../../../lib/server/links';
 

@@ -1,8 +1,8 @@
 import { db } from '../../../../lib/server/db';
 import { route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
-import { sceneForMember } from '../../../../lib/exports/exports.server';
-import { positionsResponse } from '../../../../lib/exports/responses';
+import { sceneForMember } from '../../../../lib/server/exports/vo-targets';
+import { positionsResponse } from '../../../../lib/server/exports/responses';
 
 /**
  * One row a target at `?time=` (default: the scene's time): name, ra, dec, azimuth, altitude (apparent,

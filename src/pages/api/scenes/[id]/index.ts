@@ -1,8 +1,8 @@
 import { db } from '../../../../lib/server/db';
 import { json, noContent, parseJson, route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
-import { scenePatchSchema } from '../../../../lib/server/scenes';
-import { deleteScene, sceneAccess, sceneFor, toSceneOut, updateScene } from '../../../../lib/server/scenes.server';
+import { scenePatchSchema } from '../../../../lib/contracts/scene';
+import { deleteScene, sceneAccess, sceneFor, toSceneOut, updateScene } from '../../../../lib/server/scene-service';
 
 export const GET = route(async ({ locals, params }) => {
   const user = requireUser(locals);

@@ -6,7 +6,7 @@
 import { db } from '../../../../lib/server/db';
 import { json, parseQuery, route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
-import { sceneForMember } from '../../../../lib/exports/exports.server';
+import { sceneForMember } from '../../../../lib/server/exports/vo-targets';
 import { nightQuerySchema } from '../../../../lib/night/query';
 import { nightAnswer } from '../../../../lib/server/night';
 

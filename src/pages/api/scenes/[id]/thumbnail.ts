@@ -1,7 +1,7 @@
 import { db } from '../../../../lib/server/db';
 import { notFound, route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
-import { sceneFor } from '../../../../lib/server/scenes.server';
+import { sceneFor } from '../../../../lib/server/scene-service';
 
 /** The PNG preview sent with a PATCH (`thumbnail` as a data URL); 404 when there is none. */
 export const GET = route(async ({ locals, params }) => {
@@ -16,7 +16,7 @@ export const GET = route(async ({ locals, params }) => {
 /** PUT image/png (≤ 2 MB, PNG signature checked), editor+: replaces the thumbnail without a version bump. 204. */
 export const PUT = route(async ({ locals, params, request }) => {
   const user = requireUser(locals);
-  const { putThumbnail } = await import('../../../../lib/exports/thumbnail.server');
+  const { putThumbnail } = await import('../../../../lib/server/thumbnail');
   await putThumbnail(db, user, params.id!, request);
   return new Response(null, { status: 204, headers: { 'cache-control': 'no-store' } });
 });

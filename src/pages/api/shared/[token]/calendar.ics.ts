@@ -3,7 +3,7 @@ import { db } from '../../../../lib/server/db';
 import { clientAddress, route } from '../../../../lib/server/http';
 import { rateLimit } from '../../../../lib/server/rate-limit';
 import { publicOrigin } from '../../../../lib/server/links';
-import { sceneForToken } from '../../../../lib/exports/exports.server';
+import { sceneForToken } from '../../../../lib/server/exports/vo-targets';
 import { icsResponse, sceneCalendar } from '../../../../lib/server/calendar/scene-calendar';
 
 export const GET = route(async (ctx) => {

@@ -1,8 +1,8 @@
 import { db } from '../../../../lib/server/db';
 import { clientAddress, forbidden, json, parseJson, route } from '../../../../lib/server/http';
-import { linkCan } from '../../../../lib/server/policy';
+import { linkCan } from '../../../../lib/contracts/roles';
 import { rateLimit } from '../../../../lib/server/rate-limit';
-import { guestCommentSchema } from '../../../../lib/server/scenes';
+import { guestCommentSchema } from '../../../../lib/contracts/comment';
 import { resolveToken, publicOrigin } from '../../../../lib/server/links';
 import { addComment, listComments, notifyComment } from '../../../../lib/server/comments';
 

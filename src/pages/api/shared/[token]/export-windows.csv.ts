@@ -2,8 +2,8 @@ import { db } from '../../../../lib/server/db';
 import { clientAddress, route } from '../../../../lib/server/http';
 import { rateLimit } from '../../../../lib/server/rate-limit';
 import { LINK_EXPORTS_PER_MINUTE } from '../../../../lib/server/compute/budget';
-import { sceneForToken } from '../../../../lib/exports/exports.server';
-import { windowsResponse } from '../../../../lib/exports/responses';
+import { sceneForToken } from '../../../../lib/server/exports/vo-targets';
+import { windowsResponse } from '../../../../lib/server/exports/responses';
 
 /** Share link (viewer or reviewer), no account: visibility windows over ?from=&to= (see /api/scenes/:id/windows.csv). 404 for unknown, revoked or expired tokens. */
 export const GET = route(async (ctx) => {

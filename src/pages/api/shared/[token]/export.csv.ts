@@ -2,8 +2,8 @@ import { db } from '../../../../lib/server/db';
 import { clientAddress, route } from '../../../../lib/server/http';
 import { rateLimit } from '../../../../lib/server/rate-limit';
 import { LINK_EXPORTS_PER_MINUTE } from '../../../../lib/server/compute/budget';
-import { sceneForToken } from '../../../../lib/exports/exports.server';
-import { positionsResponse } from '../../../../lib/exports/responses';
+import { sceneForToken } from '../../../../lib/server/exports/vo-targets';
+import { positionsResponse } from '../../../../lib/server/exports/responses';
 
 /** Share link (viewer or reviewer), no account: one row a target at ?time= (see /api/scenes/:id/export.csv). 404 for unknown, revoked or expired tokens. */
 export const GET = route(async (ctx) => {

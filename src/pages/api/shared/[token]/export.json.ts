@@ -1,7 +1,7 @@
 import { db } from '../../../../lib/server/db';
 import { route } from '../../../../lib/server/http';
-import { sceneForToken } from '../../../../lib/exports/exports.server';
-import { sceneJsonResponse } from '../../../../lib/exports/responses';
+import { sceneForToken } from '../../../../lib/server/exports/vo-targets';
+import { sceneJsonResponse } from '../../../../lib/server/exports/responses';
 
 /** Share link (viewer or reviewer), no account: the armilla-scene file (see /api/scenes/:id/export.json). 404 for unknown, revoked or expired tokens. */
 export const GET = route(async ({ params }) => {

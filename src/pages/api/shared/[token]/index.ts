@@ -2,12 +2,12 @@ import { db } from '../../../../lib/server/db';
 import { forbidden, route } from '../../../../lib/server/http';
 import { jsonAnswer } from '../../../../lib/server/compressed';
 import { resolveLink } from '../../../../lib/server/links';
-import { publicSceneJson } from '../../../../lib/server/scenes.server';
+import { publicSceneJson } from '../../../../lib/server/scene-service';
 
 /**
  * No account needed: `{scene, role}` read-only; 404 for unknown, revoked or expired tokens.
  * The hot read path of a presentation: the link is checked against the database on every request,
- * the scene's serialised answer comes from a cache keyed by the scene's state (scenes.server.ts), and
+ * the scene's serialised answer comes from a cache keyed by the scene's state (scene-service.ts), and
  * its compressed forms from a cache beside it.
  */
 export const GET = route(async ({ params, request }) => {

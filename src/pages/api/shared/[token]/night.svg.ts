@@ -2,7 +2,7 @@
 import { db } from '../../../../lib/server/db';
 import { clientAddress, parseQuery, route } from '../../../../lib/server/http';
 import { rateLimit } from '../../../../lib/server/rate-limit';
-import { sceneForToken } from '../../../../lib/exports/exports.server';
+import { sceneForToken } from '../../../../lib/server/exports/vo-targets';
 import { nightQuerySchema } from '../../../../lib/night/query';
 import { nightAnswer } from '../../../../lib/server/night';
 import { altitudeChartSvg, svgResponse } from '../../../../lib/server/night-svg';

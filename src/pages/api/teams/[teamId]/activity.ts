@@ -4,7 +4,7 @@ import { db } from '../../../../lib/server/db';
 import { auditLog, users } from '../../../../lib/server/db/schema';
 import { json, parseQuery, route } from '../../../../lib/server/http';
 import { authorize, requireUser } from '../../../../lib/server/policy';
-import { isoUtc } from '../../../../lib/scenes/scene';
+import { isoUtc } from '../../../../lib/contracts/scene-doc';
 
 const query = z.object({
   limit: z.coerce.number().int().min(1).max(200).default(50),

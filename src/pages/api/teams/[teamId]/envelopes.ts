@@ -1,7 +1,7 @@
 import { db } from '../../../../lib/server/db';
 import { json, parseJson, route } from '../../../../lib/server/http';
 import { authorize, requireUser } from '../../../../lib/server/policy';
-import { envelopeCreateSchema } from '../../../../lib/server/scenes';
+import { envelopeCreateSchema } from '../../../../lib/contracts/envelope';
 import { createEnvelope, listEnvelopes } from '../../../../lib/server/envelopes';
 
 /** `{envelopes: [{id, teamId, name, minAltitude, …, usedBy}]}`: the contract's envelope JSON, flat. */

@@ -1,7 +1,7 @@
 import { db } from '../../../../lib/server/db';
 import { json, parseJson, route } from '../../../../lib/server/http';
 import { authorize, requireUser } from '../../../../lib/server/policy';
-import { siteCreateSchema } from '../../../../lib/server/scenes';
+import { siteCreateSchema } from '../../../../lib/contracts/site';
 import { createSite, listSites } from '../../../../lib/server/sites';
 
 export const GET = route(async ({ locals, params }) => {

@@ -1,7 +1,7 @@
 import { db } from '../../../../../lib/server/db';
 import { noContent, route } from '../../../../../lib/server/http';
 import { requireUser } from '../../../../../lib/server/policy';
-import { sceneFor } from '../../../../../lib/server/scenes.server';
+import { sceneFor } from '../../../../../lib/server/scene-service';
 import { revokeLink } from '../../../../../lib/server/links';
 
 /** Editor+: revokes the link; its token stops working at once. */

@@ -1,8 +1,8 @@
 import { db } from '../../../../../lib/server/db';
 import { json, parseJson, route } from '../../../../../lib/server/http';
 import { requireUser } from '../../../../../lib/server/policy';
-import { linkCreateSchema } from '../../../../../lib/server/scenes';
-import { sceneFor } from '../../../../../lib/server/scenes.server';
+import { linkCreateSchema } from '../../../../../lib/contracts/link';
+import { sceneFor } from '../../../../../lib/server/scene-service';
 import { createLink, listLinks, publicOrigin } from '../../../../../lib/server/links';
 
 /** The scene's links with their state; the token is never shown again. */

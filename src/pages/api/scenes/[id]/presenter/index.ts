@@ -1,8 +1,8 @@
 import { db } from '../../../../../lib/server/db';
 import { json, parseJson, route } from '../../../../../lib/server/http';
 import { requireUser } from '../../../../../lib/server/policy';
-import { presenterSchema } from '../../../../../lib/server/scenes';
-import { sceneFor } from '../../../../../lib/server/scenes.server';
+import { presenterSchema } from '../../../../../lib/contracts/presenter';
+import { sceneFor } from '../../../../../lib/server/scene-service';
 import { readPresenter, setPresenter } from '../../../../../lib/server/presenter';
 
 export const GET = route(async ({ locals, params }) => {

@@ -1,7 +1,7 @@
 import { db } from '../../../../../lib/server/db';
 import { route } from '../../../../../lib/server/http';
 import { requireUser, roleIn } from '../../../../../lib/server/policy';
-import { sceneFor, sceneRow } from '../../../../../lib/server/scenes.server';
+import { sceneFor, sceneRow } from '../../../../../lib/server/scene-service';
 import { presenterStream, readPresenter } from '../../../../../lib/server/presenter';
 
 /** Server-sent events: `event: step` whenever the presenter moves; ends if the scene or the membership goes. */

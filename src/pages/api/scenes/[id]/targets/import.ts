@@ -1,9 +1,9 @@
 import { db } from '../../../../../lib/server/db';
 import { json, route } from '../../../../../lib/server/http';
 import { requireUser } from '../../../../../lib/server/policy';
-import { importTargets } from '../../../../../lib/imports/targets.server';
-import { readUpload } from '../../../../../lib/imports/upload';
-import { sceneFor } from '../../../../../lib/server/scenes.server';
+import { importTargets } from '../../../../../lib/server/imports/targets';
+import { readUpload } from '../../../../../lib/server/upload';
+import { sceneFor } from '../../../../../lib/server/scene-service';
 
 /**
  * Target-list CSV (multipart, field `file`; UTF-8, RFC 4180; columns name, ra, dec, epoch?, pmra?, pmdec?, notes?).

@@ -1,9 +1,9 @@
 import { db } from '../../../../../lib/server/db';
 import { json, route } from '../../../../../lib/server/http';
 import { requireUser } from '../../../../../lib/server/policy';
-import { previewTargets } from '../../../../../lib/imports/targets.server';
-import { readUpload } from '../../../../../lib/imports/upload';
-import { sceneFor } from '../../../../../lib/server/scenes.server';
+import { previewTargets } from '../../../../../lib/server/imports/targets';
+import { readUpload } from '../../../../../lib/server/upload';
+import { sceneFor } from '../../../../../lib/server/scene-service';
 
 /** Same parsing as the import; writes nothing. 200 `{rows: [{line, name, ra, dec, errors}], valid}`. */
 export const POST = route(async ({ locals, params, request }) => {

@@ -1,7 +1,7 @@
 import { db } from '../../../../../lib/server/db';
 import { json, route } from '../../../../../lib/server/http';
 import { requireUser } from '../../../../../lib/server/policy';
-import { listVersions, sceneFor } from '../../../../../lib/server/scenes.server';
+import { listVersions, sceneFor } from '../../../../../lib/server/scene-service';
 
 /** History, newest first: `{versions: [{version, authorId, createdAt, title}]}`. */
 export const GET = route(async ({ locals, params }) => {

@@ -1,8 +1,8 @@
 import { db } from '../../../../../../lib/server/db';
 import { badRequest, json, parseJson, route } from '../../../../../../lib/server/http';
 import { requireUser } from '../../../../../../lib/server/policy';
-import { restoreSchema } from '../../../../../../lib/server/scenes';
-import { restoreVersion, sceneFor } from '../../../../../../lib/server/scenes.server';
+import { restoreSchema } from '../../../../../../lib/contracts/scene';
+import { restoreVersion, sceneFor } from '../../../../../../lib/server/scene-service';
 
 /** Makes a new version with the content of version `n`; optional `{version}` guards against a stale view (409). */
 export const POST = route(async ({ locals, params, request }) => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { deltaTSeconds, earthRotationAngleDeg, gastHours, gmstHours, jdFromDate, J2000_JD } from '../../../src/lib/sky/time';
+import { deltaTSeconds, earthRotationAngleDeg, gastHours, gmstHours, jdFromDate, J2000_JD } from '../../../src/lib/sky/timescales';
 
 const sec = (hours: number) => hours * 3600;
 

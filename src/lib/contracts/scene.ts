@@ -1,8 +1,9 @@
 /**
  * Pure request/response shapes for scenes, sites, envelopes, links, comments and the presenter.
- * Built from the scene document in src/lib/scenes/scene.ts; no I/O here (scenes.server.ts does that).
+ * Built from the scene document in scene-doc.ts; no I/O here (src/lib/server/scene-service.ts does that).
  */
-import { z, type AnyZodObject, type ZodTypeAny } from 'zod';
+import { z } from 'zod';
+import { knownKeysOnly } from './known-keys';
 import { isPng } from '../png';
 import { boundedArray } from '../bounded-array';
 import {
@@ -20,33 +21,10 @@ import {
   type Site,
   type Step,
   type Target,
-} from '../scenes/scene';
-import { envelopeSchema, teamEnvelopeSchema, type EnvelopeJson, type TeamEnvelopeJson } from './envelope-schema';
+} from './scene-doc';
+import { envelopeSchema, type EnvelopeJson } from './envelope';
 
-export { envelopeSchema, teamEnvelopeSchema, type EnvelopeJson, type TeamEnvelopeJson };
-
-/**
- * Refuses keys the schema does not know, naming the first one as the field (zod's own `.strict()`
- * reports unknown keys without a path, so the client could not tell which field was wrong).
- */
-export function knownKeysOnly<T extends ZodTypeAny>(shapeOf: AnyZodObject, schema: T) {
-  const known = new Set(Object.keys(shapeOf.shape));
-  return z
-    .unknown()
-    .superRefine((v, ctx) => {
-      if (v === null || typeof v !== 'object' || Array.isArray(v)) {
-        ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'The body must be a JSON object.' });
-        return;
-      }
-      for (const k of Object.keys(v)) {
-        if (known.has(k)) continue;
-        // The first unknown key is enough to refuse (a body of a million keys is one issue, not a million).
-        ctx.addIssue({ code: z.ZodIssueCode.custom, path: [k], message: 'is not a known field' });
-        return;
-      }
-    })
-    .pipe(schema);
-}
+export { knownKeysOnly };
 
 /** Ids inside a list (targets, pins, steps) must be unique: steps, comments and pins point at them. */
 function uniqueIds<T extends { id: string }>(item: z.ZodType<T, z.ZodTypeDef, unknown>, max: number) {
@@ -87,7 +65,7 @@ export const sceneDocSchema = z.object({
 });
 export type SceneDoc = z.infer<typeof sceneDocSchema>;
 
-const idRef = z.string().trim().min(1).max(64);
+export const idRef = z.string().trim().min(1).max(64);
 
 /** The document fields a create or a patch may carry, all optional. */
 const docFields = {
@@ -147,7 +125,7 @@ export const thumbnailSchema = z
     return bytes;
   });
 
-const readOnlyEcho = z.unknown().optional();
+export const readOnlyEcho = z.unknown().optional();
 
 const scenePatchShape = z.object({
   version: z.number({ required_error: 'is required' }).int().min(1),
@@ -225,84 +203,19 @@ export function applyPatch(doc: SceneDoc, b: ScenePatchBody): SceneDoc {
   return next;
 }
 
-// ---- sites ----
-const siteCreateShape = siteSchema;
-export const siteCreateSchema = knownKeysOnly(siteCreateShape, siteCreateShape);
-const sitePatchShape = z.object({
-  name: siteSchema.shape.name.optional(),
-  lat: siteSchema.shape.lat.optional(),
-  lon: siteSchema.shape.lon.optional(),
-  height: siteSchema.shape.height.removeDefault().optional(),
-  timeZone: siteSchema.shape.timeZone.removeDefault().optional(),
-});
-export const sitePatchSchema = knownKeysOnly(sitePatchShape, sitePatchShape);
+/** The scene as a guest of a share link sees it. */
+export type PublicScene = Omit<SceneOut, 'createdBy' | 'updatedBy'>;
 
-// ---- envelopes ----
-/** PATCH merges into the stored envelope; `null` clears an optional limit. */
-const envelopeFieldNames = ['minAltitude', 'maxAltitude', 'azimuthRanges', 'keyholeRadius', 'sunAvoidance', 'moonAvoidance', 'horizonMask', 'hourAngleLimits', 'declinationLimits'] as const;
-const envelopePatchShape = z.object({
-  name: z.string().optional(),
-  ...(Object.fromEntries(envelopeFieldNames.map((k) => [k, z.unknown().optional()])) as Record<(typeof envelopeFieldNames)[number], z.ZodOptional<z.ZodUnknown>>),
-  // echoes of the GET answer, ignored
-  id: readOnlyEcho,
-  teamId: readOnlyEcho,
-  createdAt: readOnlyEcho,
-  updatedAt: readOnlyEcho,
-  usedBy: readOnlyEcho,
-});
-export const envelopePatchSchema = knownKeysOnly(envelopePatchShape, envelopePatchShape);
-const envelopeCreateShape = z.object({
-  name: z.unknown(),
-  ...(Object.fromEntries(envelopeFieldNames.map((k) => [k, z.unknown().optional()])) as Record<(typeof envelopeFieldNames)[number], z.ZodOptional<z.ZodUnknown>>),
-});
-export const envelopeCreateSchema = knownKeysOnly(envelopeCreateShape, teamEnvelopeSchema);
-
-export function mergeEnvelope(current: TeamEnvelopeJson, patch: Record<string, unknown>): Record<string, unknown> {
-  const next: Record<string, unknown> = { ...current };
-  for (const k of ['name', ...envelopeFieldNames] as const) {
-    if (!(k in patch)) continue;
-    const v = patch[k];
-    if (v === null) delete next[k];
-    else if (v !== undefined) next[k] = v;
-  }
-  return next;
+/** One entry of a scene's version history. */
+export interface VersionOut {
+  version: number;
+  authorId: string | null;
+  authorName?: string | null;
+  createdAt: string;
+  title?: string;
 }
 
-// ---- comments ----
-export const anchorSchema = z.union([
-  z.object({ ra: z.number().min(0).lt(360), dec: z.number().min(-90).max(90) }).strict(),
-  z.object({ azimuth: z.number().min(0).max(360), altitude: z.number().min(-90).max(90) }).strict(),
-  // a point of the altitude-over-time chart: a target (by name) at an instant
-  z.object({ chart: z.literal('altitude'), target: z.string().trim().min(1).max(200), time: isoUtc }).strict(),
-]);
-export type Anchor = z.infer<typeof anchorSchema>;
-
-export const commentBodyText = z.string().trim().min(1, 'must not be empty').max(10_000);
-const commentCreateShape = z.object({
-  body: commentBodyText,
-  anchor: anchorSchema.nullable().optional(),
-  stepId: z.string().min(1).max(40).nullable().optional(),
-  parentId: idRef.nullable().optional(),
-});
-export const commentCreateSchema = knownKeysOnly(commentCreateShape, commentCreateShape);
-export type CommentCreateBody = z.infer<typeof commentCreateShape>;
-
-const guestCommentShape = commentCreateShape.extend({ authorName: z.string().trim().min(1, 'must not be empty').max(80) });
-export const guestCommentSchema = knownKeysOnly(guestCommentShape, guestCommentShape);
-
-const commentPatchShape = z.object({ resolved: z.boolean({ required_error: 'is required' }) });
-export const commentPatchSchema = knownKeysOnly(commentPatchShape, commentPatchShape);
-
-// ---- links ----
-const linkCreateShape = z.object({
-  role: z.enum(['viewer', 'reviewer'], { required_error: 'is required' }),
-  expiresAt: isoUtc.nullable().optional(),
-});
-export const linkCreateSchema = knownKeysOnly(linkCreateShape, linkCreateShape);
-
-// ---- presenter ----
-const presenterShape = z.object({
-  stepIndex: z.number({ required_error: 'is required' }).int().min(0).max(MAX_STEPS - 1),
-  time: isoUtc.nullable().optional(),
-});
-export const presenterSchema = knownKeysOnly(presenterShape, presenterShape);
+/** The editable part of a scene: what autosave sends and what a conflict compares. */
+export const EDITABLE_FIELDS = ['title', 'description', 'site', 'time', 'layers', 'camera', 'envelopeId', 'envelope', 'targets', 'pins', 'steps'] as const;
+export type EditableField = (typeof EDITABLE_FIELDS)[number];
+export type SceneFields = Pick<SceneOut, EditableField>;

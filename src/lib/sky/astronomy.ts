@@ -3,7 +3,7 @@
  * module imports `Astronomy` from here, so the ΔT model of time.ts is installed before any call.
  */
 import * as Astronomy from 'astronomy-engine';
-import { deltaTSeconds, J2000_JD } from './time';
+import { deltaTSeconds, J2000_JD } from './timescales';
 
 Astronomy.SetDeltaTFunction((utDays: number) => deltaTSeconds(utDays + J2000_JD));
 

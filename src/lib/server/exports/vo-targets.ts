@@ -2,12 +2,12 @@
  * Loading a scene for an export, either as a signed-in team member (viewer+) or through a live share link.
  */
 import type { User } from 'lucia';
-import type { DbOrTx } from '../server/db/client';
-import { resolveToken } from '../server/links';
-import type { SceneOut } from '../server/scenes';
-import { publicScene, sceneFor, toSceneOut } from '../server/scenes.server';
-import { cataloguePosition } from './sky-targets';
-import type { VoTarget } from './votable';
+import type { DbOrTx } from '../db/client';
+import { resolveToken } from '../links';
+import type { SceneOut } from '../../contracts/scene';
+import { publicScene, sceneFor, toSceneOut } from '../scene-service';
+import { cataloguePosition } from '../../exports/sky-targets';
+import type { VoTarget } from '../../exports/votable';
 
 export async function sceneForMember(db: DbOrTx, user: User, id: string): Promise<SceneOut> {
   const { row } = await sceneFor(db, user, id, 'scene.read');

@@ -13,19 +13,8 @@ import { HttpError, notFound } from './http';
 import { authorize, decide, type Action } from './policy';
 import { preparedReadsOf } from './db/prepared';
 import type { Role } from './db/schema';
-import {
-  applyPatch,
-  defaultCamera,
-  sceneDocSchema,
-  teamEnvelopeSchema,
-  withDefaultLayers,
-  type EnvelopeJson,
-  type TeamEnvelopeJson,
-  type SceneCreateBody,
-  type SceneDoc,
-  type SceneOut,
-  type ScenePatchBody,
-} from './scenes';
+import { applyPatch, defaultCamera, sceneDocSchema, withDefaultLayers, type SceneCreateBody, type SceneDoc, type SceneOut, type ScenePatchBody } from '../contracts/scene';
+import { teamEnvelopeSchema, type EnvelopeJson, type TeamEnvelopeJson } from '../contracts/envelope';
 
 type SceneRow = typeof scenes.$inferSelect;
 

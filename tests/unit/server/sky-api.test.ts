@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { eventsQuerySchema, eventsResponse, observeQuerySchema, observeResponse, windowsBodySchema, windowsResponse } from '../../../src/lib/sky/api';
+import { eventsQuerySchema, eventsResponse, observeQuerySchema, observeResponse, windowsBodySchema, windowsResponse } from '../../../src/lib/server/sky-api';
 
 const fieldOf = (r: { success: boolean; error?: { issues: { path: (string | number)[] }[] } }) => (r.success ? null : r.error!.issues[0].path.join('.'));
 

@@ -6,13 +6,13 @@
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { User } from 'lucia';
-import type { DbOrTx } from '../server/db/client';
-import { scenes } from '../server/db/schema';
-import { audit } from '../server/audit';
-import { HttpError } from '../server/http';
-import { sceneFor, toSceneOut, writeTx } from '../server/scenes.server';
-import { skyThumbnail, thumbnailEtag, thumbnailKey } from '../server/thumbnails/render.server';
-import { readCapped } from '../imports/upload';
+import type { DbOrTx } from './db/client';
+import { scenes } from './db/schema';
+import { audit } from './audit';
+import { HttpError } from './http';
+import { sceneFor, toSceneOut, writeTx } from './scene-service';
+import { skyThumbnail, thumbnailEtag, thumbnailKey } from './thumbnails/render.server';
+import { readCapped } from './upload';
 import { isPng } from '../png';
 
 export { isPng };

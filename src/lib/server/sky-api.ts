@@ -4,15 +4,15 @@
  * routes in src/pages/api/sky/ only parse, rate-limit and call these.
  */
 import { z } from 'zod';
-import { BODY_NAMES, type BodyName } from './bodies';
-import { observe, type Target } from './observe';
-import { hasMotion, type SpaceMotion } from './motion';
-import { skyEvents } from './events';
-import { visibilityWindows, type WindowTarget } from './windows';
-import { envelopeSchema } from './envelope';
+import { BODY_NAMES, type BodyName } from '../sky/bodies';
+import { observe, type Target } from '../sky/observe';
+import { hasMotion, type SpaceMotion } from '../sky/motion';
+import { skyEvents } from '../sky/events';
+import { visibilityWindows, type WindowTarget } from '../sky/windows';
+import { envelopeSchema } from '../contracts/envelope';
 import { boundedArray } from '../bounded-array';
-import { windowsGridStepSec } from './night';
-import type { SiteInput } from './frames';
+import { windowsGridStepSec } from '../sky/night';
+import type { SiteInput } from '../sky/frames';
 
 export const MAX_SPAN_DAYS = 31;
 export const MAX_TARGETS = 2000;

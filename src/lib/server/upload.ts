@@ -3,8 +3,8 @@
  * announced, and otherwise while streaming, as soon as the count passes the cap — never buffered whole
  * first. Multipart bodies are then read with the standard Request.formData().
  */
-import { HttpError } from '../server/http';
-import { FileError, MAX_IMPORT_BYTES, type RowError } from './csv';
+import { HttpError } from './http';
+import { FileError, MAX_IMPORT_BYTES, type RowError } from '../imports/csv';
 
 /** Multipart framing (boundaries, part headers, small form fields) allowed on top of the file cap. */
 const MULTIPART_OVERHEAD = 64 * 1024;

@@ -4,14 +4,14 @@
  */
 import { nanoid } from 'nanoid';
 import type { User } from 'lucia';
-import type { DbOrTx } from '../server/db/client';
-import { HttpError } from '../server/http';
-import { MAX_TARGETS } from '../server/scenes';
-import { docOf, sceneFor, sceneRow, updateScene } from '../server/scenes.server';
-import type { Target } from '../scenes/scene';
-import { FileError } from './csv';
-import { parseTargetCsv, type TargetCsvResult } from './targets-csv';
-import { fileErrorResponse, rowErrors } from './upload';
+import type { DbOrTx } from '../db/client';
+import { HttpError } from '../http';
+import { MAX_TARGETS } from '../../contracts/scene';
+import { docOf, sceneFor, sceneRow, updateScene } from '../scene-service';
+import type { Target } from '../../contracts/scene-doc';
+import { FileError } from '../../imports/csv';
+import { parseTargetCsv, type TargetCsvResult } from '../../imports/targets-csv';
+import { fileErrorResponse, rowErrors } from '../upload';
 
 function parseOrThrow(bytes: Uint8Array, existing: Target[]): TargetCsvResult {
   try {

@@ -1,14 +1,14 @@
 /** Shared request parsing and responses of the export routes (member and share-link variants alike). */
 import { z } from 'zod';
-import { isoUtc } from '../scenes/scene';
-import { HttpError, json, parseQuery } from '../server/http';
-import type { SceneOut } from '../server/scenes';
-import { attachment, slug, toSceneFile } from './scene-json';
-import { runCompute } from '../server/compute';
-import { chargeWork, handoutWork, MAX_HANDOUT_TARGETS, MAX_POSITION_ROWS, positionsWork, windowsWork, type WORK_PER_MINUTE } from '../server/compute/budget';
-import { windowsStepSec } from '../sky/api';
-import { toVoTable } from './votable';
-import { voTargets } from './exports.server';
+import { isoUtc } from '../../contracts/scene-doc';
+import { HttpError, json, parseQuery } from '../http';
+import type { SceneOut } from '../../contracts/scene';
+import { attachment, slug, toSceneFile } from '../../exports/scene-json';
+import { runCompute } from '../compute';
+import { chargeWork, handoutWork, MAX_HANDOUT_TARGETS, MAX_POSITION_ROWS, positionsWork, windowsWork, type WORK_PER_MINUTE } from '../compute/budget';
+import { windowsStepSec } from '../sky-api';
+import { toVoTable } from '../../exports/votable';
+import { voTargets } from './vo-targets';
 
 const MAX_SPAN_MS = 31 * 86400000;
 

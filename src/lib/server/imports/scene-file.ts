@@ -1,10 +1,10 @@
 /** POST /api/scenes/import: an `armilla-scene` file → a new scene in the caller's team. */
 import type { User } from 'lucia';
-import type { DbOrTx } from '../server/db/client';
-import { HttpError } from '../server/http';
-import { runCompute } from '../server/compute';
-import { createScene } from '../server/scenes.server';
-import { readCapped, readUpload } from '../imports/upload';
+import type { DbOrTx } from '../db/client';
+import { HttpError } from '../http';
+import { runCompute } from '../compute';
+import { createScene } from '../scene-service';
+import { readCapped, readUpload } from '../upload';
 
 export const MAX_SCENE_FILE_BYTES = 5 * 1024 * 1024;
 
