@@ -8,6 +8,7 @@ import { TextField } from '../ui/Field';
 import { api, ApiError } from '../ui/api';
 import { zodResolver } from '../ui/zod-resolver';
 import { passwordForm, profileForm } from './schemas';
+import { TokensCard } from './TokensCard';
 
 const message = (e: unknown) => (e instanceof ApiError ? e.message : 'Could not reach the server; try again.');
 
@@ -86,6 +87,7 @@ export default function AccountPanel({ name, email }: { name: string; email: str
     <div className="grid gap-6 md:grid-cols-2">
       <ProfileCard name={name} email={email} />
       <PasswordCard />
+      <TokensCard />
       <Card title="Session" className="md:col-span-2">
         <p className="mb-4 text-ink-300">Signing out ends this session on the server at once.</p>
         <Button variant="secondary" busy={busy} onClick={signOut}>Sign out</Button>

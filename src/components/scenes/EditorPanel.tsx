@@ -1,7 +1,7 @@
 /** The scene's fields: editors change them (autosaved), viewers and reviewers read them. */
-import { useEffect, useMemo, useState, useId } from 'react';
+import { useEffect, useState, useId } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { cameraSchema, LAYER_KEYS, siteSchema, type Camera, type LayerKey, type Layers, type Site } from '../../lib/contracts/scene-doc';
+import { cameraSchema, LAYER_KEYS, type Camera, type LayerKey, type Layers } from '../../lib/contracts/scene-doc';
 import { envelopeSchema } from '../../lib/contracts/envelope';
 import { apiGet } from '../../lib/client/api';
 import type { EnvelopeOut } from '../../lib/contracts/envelope';
@@ -29,97 +29,9 @@ const LAYER_LABELS: Record<LayerKey, string> = {
   bodyLabels: 'Body names', envelope: 'Pointing envelope', targets: 'Targets', pins: 'Pins', comments: 'Comment markers', ground: 'Ground',
 };
 
-let zonesCache: string[] | null = null;
-export function timeZones(): string[] {
-  if (zonesCache) return zonesCache;
-  try {
-    zonesCache = (Intl as unknown as { supportedValuesOf: (k: string) => string[] }).supportedValuesOf('timeZone');
-  } catch {
-    zonesCache = [];
-  }
-  if (!zonesCache.includes('UTC')) zonesCache = ['UTC', ...zonesCache];
-  return zonesCache;
-}
-
-export function SiteForm({ value, onApply, submitLabel = 'Apply site' }: { value: Site; onApply: (s: Site) => void; submitLabel?: string }) {
-  const id = useId();
-  const eo = value.earthOrientation;
-  const [f, setF] = useState({
-    name: value.name, lat: String(value.lat), lon: String(value.lon), height: String(value.height ?? 0), timeZone: value.timeZone ?? 'UTC',
-    dut1: eo ? String(eo.dut1) : '', xp: eo ? String(eo.xp) : '', yp: eo ? String(eo.yp) : '', eoDate: eo?.date ?? '', eoSource: eo?.source ?? '',
-  });
-  const [err, setErr] = useState<{ field: string; message: string } | null>(null);
-  const zones = useMemo(timeZones, []);
-  const apply = () => {
-    // Earth orientation: all five empty → none; otherwise all are checked by the schema.
-    const eoGiven = [f.dut1, f.xp, f.yp, f.eoDate, f.eoSource].some((x) => x.trim() !== '');
-    const earthOrientation = eoGiven
-      ? { dut1: f.dut1.trim() === '' ? NaN : Number(f.dut1), xp: f.xp.trim() === '' ? NaN : Number(f.xp), yp: f.yp.trim() === '' ? NaN : Number(f.yp), date: f.eoDate.trim(), source: f.eoSource.trim() }
-      : undefined;
-    const r = siteSchema.safeParse({ name: f.name, lat: Number(f.lat), lon: Number(f.lon), height: Number(f.height || 0), timeZone: f.timeZone, earthOrientation });
-    const bad = (['lat', 'lon', 'height', ...(eoGiven ? (['dut1', 'xp', 'yp'] as const) : [])] as const).find((k) => !Number.isFinite(Number(f[k])) || (eoGiven && f[k].trim() === ''));
-    if (bad) return setErr({ field: bad, message: `${bad}: must be a number` });
-    if (!r.success) {
-      const i = r.error.issues[0]!;
-      const k = i.path[0] === 'earthOrientation' ? ({ date: 'eoDate', source: 'eoSource' } as Record<string, string>)[String(i.path[1])] ?? String(i.path[1]) : String(i.path[0]);
-      return setErr({ field: k, message: `${i.path.join('.')}: ${i.message}` });
-    }
-    setErr(null);
-    onApply(r.data);
-  };
-  const field = (k: keyof typeof f, label: string, hint?: string) => (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={`${id}-${k}`} className={LABEL}>
-        {label}
-      </label>
-      <input id={`${id}-${k}`} className={INPUT} value={f[k]} inputMode={k === 'name' || k === 'eoDate' || k === 'eoSource' ? undefined : 'decimal'} aria-invalid={err?.field === k || undefined} placeholder={hint} onChange={(e) => setF({ ...f, [k]: e.target.value })} />
-    </div>
-  );
-  return (
-    <div className="flex flex-col gap-2">
-      {field('name', 'Site name')}
-      <div className="grid grid-cols-3 gap-2">
-        {field('lat', 'Latitude (°, north +)', '40.01')}
-        {field('lon', 'Longitude (°, east +)', '-105.27')}
-        {field('height', 'Height (m)', '1650')}
-      </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-tz`} className={LABEL}>
-          Time zone
-        </label>
-        <select id={`${id}-tz`} className={INPUT} value={f.timeZone} aria-invalid={err?.field === 'timeZone' || undefined} onChange={(e) => setF({ ...f, timeZone: e.target.value })}>
-          {!zones.includes(f.timeZone) && <option value={f.timeZone}>{f.timeZone}</option>}
-          {zones.map((z) => (
-            <option key={z} value={z}>
-              {z}
-            </option>
-          ))}
-        </select>
-      </div>
-      <details className="text-xs" open={!!eo}>
-        <summary className={LABEL}>Earth orientation for pointing (optional)</summary>
-        <p className="mt-1 text-ink-300">UT1 − UTC and polar motion from IERS Bulletin A for the night observed; left empty they are taken as 0 (up to ~13″ of hour angle).</p>
-        <div className="mt-1 grid grid-cols-3 gap-2">
-          {field('dut1', 'UT1 − UTC (s)', '-0.0412')}
-          {field('xp', 'Polar motion xp (″)', '0.1523')}
-          {field('yp', 'Polar motion yp (″)', '0.3741')}
-        </div>
-        <div className="mt-1 grid grid-cols-2 gap-2">
-          {field('eoDate', 'For the date', '2026-12-03')}
-          {field('eoSource', 'Source', 'IERS Bulletin A')}
-        </div>
-      </details>
-      {err && (
-        <p role="alert" className="text-xs text-danger-300">
-          {err.message}
-        </p>
-      )}
-      <Button variant="secondary" onClick={apply}>
-        {submitLabel}
-      </Button>
-    </div>
-  );
-}
+/** Sites are entered with the place search, the browser's location or typed coordinates (components/sites). */
+export { SiteEditor as SiteForm, timeZones } from '../sites/SiteEditor';
+import { SiteEditor as SiteForm } from '../sites/SiteEditor';
 
 function SiteSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; readOnly: boolean }) {
   const id = useId();

@@ -21,6 +21,7 @@ export function exportLinks(src: ExportSource, time: string, spanHours: number) 
       windows: `${base}/windows.csv?${q({ from: iso(from), to: iso(to) })}`,
       json: `${base}/export.json`,
       votable: `${base}/targets.vot`,
+      calendar: `${base}/calendar.ics`,
     };
   }
   const base = `/api/shared/${encodeURIComponent(src.token)}`;
@@ -30,6 +31,7 @@ export function exportLinks(src: ExportSource, time: string, spanHours: number) 
     windows: `${base}/export-windows.csv?${q({ from: iso(from), to: iso(to) })}`,
     json: `${base}/export.json`,
     votable: `${base}/export.vot`,
+    calendar: `${base}/calendar.ics`,
   };
 }
 
@@ -83,6 +85,14 @@ export function ExportPanel({ source, time }: { source: ExportSource; time: stri
           <a className={LINK} href={l.votable} download>
             Targets (VOTable)
           </a>
+        </li>
+        <li>
+          <a className={LINK} href={l.calendar} download data-testid="calendar-download">
+            The night in your calendar (iCalendar)
+          </a>
+          <span className="block text-xs text-ink-300">
+            Sunset, twilights, Moon, each target’s windows and the briefing steps of the scene’s night, in UTC with the site’s zone named. Importing it again updates the events.
+          </span>
         </li>
       </ul>
       <p className="text-xs text-ink-300">Computed times and positions are for planning; site rules and the instrument’s own interlocks take precedence.</p>

@@ -98,3 +98,18 @@ describe('time zone at observatory towns (zones from memory; coordinates from me
     expect(t).toMatchObject({ name: 'La Serena', country: 'CL', timeZone: 'America/Santiago' });
   });
 });
+
+describe('precomputed town zones (town-zones.json)', () => {
+  test('match this gazetteer and agree with a live geo-tz lookup', () => {
+    const g = gazetteer();
+    expect(g.zonesPrecomputed).toBe(true);
+    let checked = 0;
+    for (const q of ['san', 'nov', 'ber', 'kar', 'mon', 'vil', 'sai', 'por']) {
+      for (const p of g.search(q, 40)) {
+        expect(p.timeZone, `${p.name} ${p.country}`).toBe(zoneAt(p.lat, p.lon));
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(250);
+  });
+});

