@@ -3,8 +3,8 @@
  * resolve / reopen; filter open / resolved; deep links #comment-<id>.
  */
 import { useEffect, useId, useMemo, useState } from 'react';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { apiGet, apiPatch, apiPost, errorText } from '../../lib/client/api';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { apiPatch, apiPost, errorText } from '../../lib/client/api';
 import type { Anchor, CommentOut } from '../../lib/contracts/comment';
 import type { Step } from '../../lib/contracts/scene-doc';
 import { describeAnchor, threads, timeAgo } from '../../lib/client/scene-view';
@@ -12,23 +12,9 @@ import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
 import { Markdown } from '../briefing/Markdown';
 import { INPUT, LABEL } from '../scenes/controls';
+import { commentsKey, useComments, type ReviewAccess } from './comments';
 
-export type ReviewAccess =
-  | { kind: 'member'; sceneId: string; canComment: boolean; canResolve: boolean }
-  | { kind: 'guest'; token: string; canComment: boolean };
-
-export function commentsKey(a: ReviewAccess) {
-  return a.kind === 'member' ? ['comments', a.sceneId] : ['shared-comments', a.token];
-}
-
-export function useComments(a: ReviewAccess, enabled = true) {
-  return useQuery({
-    queryKey: commentsKey(a),
-    enabled,
-    refetchInterval: 15_000,
-    queryFn: () => apiGet<{ comments: CommentOut[] }>(a.kind === 'member' ? `/api/scenes/${a.sceneId}/comments` : `/api/shared/${encodeURIComponent(a.token)}/comments`).then((r) => r.comments),
-  });
-}
+export { commentsKey, useComments, type ReviewAccess } from './comments';
 
 const GUEST_NAME_KEY = 'armilla.guestName';
 
