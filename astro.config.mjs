@@ -38,6 +38,25 @@ function armillaServer() {
   };
 }
 
+/**
+ * The sky view in the browser computes planets from a lighter cut of the VSOP87B series
+ * (src/lib/sky/planets/vsop87b-view.json: within 3″ of the full cut, a quarter of a pixel at the narrowest
+ * field of view, 28 kB instead of 95 kB as brotli) so a viewer link's first frame waits for less
+ * JavaScript; the server, the API, exports and tests keep the full series (see planets/README.md).
+ * @returns {import('vite').Plugin}
+ */
+function viewSeries() {
+  const view = fileURLToPath(new URL('./src/lib/sky/planets/vsop87b-view.json', import.meta.url));
+  return {
+    name: 'armilla-view-series',
+    enforce: 'pre',
+    resolveId(source, importer, options) {
+      if (options?.ssr || source !== './vsop87b.json' || !importer?.replace(/\\/g, '/').endsWith('/src/lib/sky/planets/series.ts')) return null;
+      return view;
+    },
+  };
+}
+
 export default defineConfig({
   output: 'server',
   adapter: node({ mode: 'middleware' }),
@@ -55,6 +74,6 @@ export default defineConfig({
     },
   },
   vite: {
-    plugins: [tailwindcss()],
+    plugins: [tailwindcss(), viewSeries()],
   },
 });

@@ -177,3 +177,24 @@ describe('GET /api/shared/:token/night', () => {
     expect((await anon.get(`/api/shared/not-a-token-${'x'.repeat(20)}/night`)).status).toBe(404);
   });
 });
+
+describe('comments pinned to the altitude chart', () => {
+  it('a reviewer pins a comment to a target at a time; sky anchors keep working; a bad chart anchor is a 400 naming the field', async () => {
+    const reviewer = new ApiClient(server.url);
+    await reviewer.signIn(DEMO.reviewer);
+    const chart = await reviewer.post(`/api/scenes/${sceneId}/comments`, { body: 'Field A is best here', anchor: { chart: 'altitude', target: 'Field A', time: '2026-03-20T21:30:00Z' } });
+    expect(chart.status, JSON.stringify(chart.data)).toBe(201);
+    const sky = await reviewer.post(`/api/scenes/${sceneId}/comments`, { body: 'South, low', anchor: { azimuth: 180, altitude: 20 } });
+    expect(sky.status).toBe(201);
+    const eq = await reviewer.post(`/api/scenes/${sceneId}/comments`, { body: 'Here', anchor: { ra: 83.8, dec: -5.4 } });
+    expect(eq.status).toBe(201);
+    const list = await viewer.get(`/api/scenes/${sceneId}/comments`);
+    const anchors = list.data.comments.map((c: { anchor: unknown }) => c.anchor);
+    expect(anchors).toEqual(expect.arrayContaining([{ chart: 'altitude', target: 'Field A', time: '2026-03-20T21:30:00Z' }, { azimuth: 180, altitude: 20 }, { ra: 83.8, dec: -5.4 }]));
+    const before = list.data.comments.length;
+    const bad = await reviewer.post(`/api/scenes/${sceneId}/comments`, { body: 'No time', anchor: { chart: 'altitude', target: 'Field A', time: 'tonight' } });
+    expect(bad.status).toBe(400);
+    expect(bad.data.error.field).toMatch(/^anchor/);
+    expect((await viewer.get(`/api/scenes/${sceneId}/comments`)).data.comments.length).toBe(before);
+  });
+});

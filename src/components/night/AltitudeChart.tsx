@@ -4,7 +4,7 @@
  * marked, the Moon, a cursor at the scene time. SVG from d3-scale + d3-shape through React, so the same
  * component draws on the server (the printed handout, the SVG download) and in the browser (see README.md).
  */
-import { useId, useMemo, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
+import { useId, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent, type PointerEvent } from 'react';
 import { scaleLinear } from 'd3-scale';
 import { line } from 'd3-shape';
 import { airmassTicks, clock, curveRuns, daylightBands, hourTicks, limitBands, moonPhaseName, nightSummary, altitudeAt, type Pt } from '../../lib/night/chart';
@@ -43,6 +43,15 @@ const M = { top: 14, right: 46, bottom: 30, left: 40 };
 
 export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, height = 400, cursor = null, onCursor, highlight = null, comments = [], onPick, picking = false, title, fixedSize = false }: AltitudeChartProps) {
   const id = useId().replace(/[^a-zA-Z0-9_-]/g, '');
+  // render-to-commit time of each drawing, as a performance entry `night-chart` (read by tests/bench/night.bench.ts)
+  const renderStart = typeof performance !== 'undefined' ? performance.now() : 0;
+  useLayoutEffect(() => {
+    try {
+      performance.measure('night-chart', { start: renderStart, end: performance.now(), detail: { targets: data.targets.length } });
+    } catch {
+      /* older browsers */
+    }
+  });
   const from = Date.parse(data.from), to = Date.parse(data.to);
   const x = useMemo(() => scaleLinear().domain([from, to]).range([M.left, width - M.right]), [from, to, width]);
   const y = useMemo(() => scaleLinear().domain([0, 90]).range([height - M.bottom, M.top]), [height]);

@@ -2,7 +2,6 @@
  * Review: comments anchored to a sky position (drawn as markers on the sphere) or to a step; replies;
  * resolve / reopen; filter open / resolved; deep links #comment-<id>.
  */
-import { keys, useCommentList } from '../../lib/client/queries';
 import { useEffect, useId, useMemo, useState } from 'react';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiPatch, apiPost, errorText } from '../../lib/client/api';
@@ -13,13 +12,9 @@ import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
 import { Markdown } from '../briefing/Markdown';
 import { INPUT, LABEL } from '../scenes/controls';
+import { commentsKey, useComments, type ReviewAccess } from './comments';
 
-export type ReviewAccess =
-  | { kind: 'member'; sceneId: string; canComment: boolean; canResolve: boolean }
-  | { kind: 'guest'; token: string; canComment: boolean };
-
-export const commentsKey = (a: ReviewAccess) => keys.comments(a);
-export const useComments = useCommentList;
+export { commentsKey, useComments, type ReviewAccess } from './comments';
 
 const GUEST_NAME_KEY = 'armilla.guestName';
 

@@ -3,7 +3,7 @@
  * the sky on a phone), follow the presenter (the audience's stage), and for reviewer links comments.
  */
 import { useSharedScene } from '../../lib/client/queries';
-import { useMemo, useState } from 'react';
+import { lazy, Suspense, useMemo, useState } from 'react';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
@@ -11,14 +11,19 @@ import { ApiError, errorText } from '../../lib/client/api';
 import type { Anchor } from '../../lib/contracts/comment';
 import { anchorFromPick, commentMarkers, formatInZone, sceneAtStep, toSceneLike } from '../../lib/client/scene-view';
 import { Sky, type PickedPoint } from './Sky';
+import { afterFirstFrame } from '../sphere/sky-adapter';
 import { Section, Tabs } from './controls';
 import { ExportPanel } from './ExportPanel';
 import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
 import { Markdown } from '../briefing/Markdown';
-import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
-import { NightPanel } from '../night/NightPanel';
+import { useComments, type ReviewAccess } from '../review/comments';
 import { chartComments, nightRevision } from '../night/mount';
+
+/** Only reviewer links show it: a chunk of its own, so a viewer link's first frame does not wait for it. */
+const ReviewPanel = lazy(() => import('../review/ReviewPanel').then((m) => ({ default: m.ReviewPanel })));
+/** Below the sky, with its charting code: a chunk of its own, fetched once the sky has drawn its first frame. */
+const NightPanel = lazy(() => afterFirstFrame().then(() => import('../night/NightPanel')).then((m) => ({ default: m.NightPanel })));
 
 function Shared({ token, embed }: { token: string; embed: boolean }) {
   const q = useSharedScene(token);
@@ -153,7 +158,11 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
             ))}
           </ol>
         )}
-        {tab === 'review' && reviewer && <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />}
+        {tab === 'review' && reviewer && (
+          <Suspense fallback={<p className="text-sm text-ink-300">Loading comments…</p>}>
+            <ReviewPanel access={access} steps={scene.steps} anchor={anchor} onPick={() => setPicking(true)} onClearAnchor={() => setAnchor(null)} />
+          </Suspense>
+        )}
         {tab === 'about' && (
           <div className="flex flex-col gap-3">
             {scene.description ? <Markdown source={scene.description} className="text-sm text-ink-300" /> : <p className="text-sm text-ink-300">No description.</p>}
@@ -169,6 +178,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const night = (
     <div className="px-3 pb-6 pt-2" data-testid="night-section">
       <Section title="Night: altitude over time, sky coverage, figures" defaultOpen>
+      <Suspense fallback={<p className="text-sm text-ink-300">Loading the night…</p>}>
       <NightPanel
         source={{ kind: 'shared', token }}
         timeZone={scene.site.timeZone ?? 'UTC'}
@@ -185,6 +195,7 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
             : undefined
         }
       />
+      </Suspense>
     </Section>
     </div>
   );

@@ -371,6 +371,7 @@ function Renderer() {
       st.lastFrameAt = performance.now();
       st.firstFrameAt ??= st.lastFrameAt;
     }
+    engine.frameDrawn();
   }, 1);
   return null;
 }

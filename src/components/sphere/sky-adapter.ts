@@ -80,14 +80,32 @@ export function bodiesMoved(f: sky.SkyFrame, prev: SkyBody[]): SkyBody[] {
 /** Apparent ENU (standard refraction) of every catalogue star, packed xyz. */
 export const starsToEnu = (cat: sky.PositionSet, frame: sky.SkyFrame, out: Float32Array) => sky.starsToEnu(cat, frame, out);
 
+let markFirst: (() => void) | null = null;
+const firstFrame = new Promise<void>((r) => (markFirst = r));
+/** Called by the canvas after each frame it draws; the first call releases `afterFirstFrame`. */
+export function frameDrawn(): void {
+  if (markFirst) {
+    markFirst();
+    markFirst = null;
+  }
+}
+/**
+ * Resolves once the view has drawn its first frame (or after `fallbackMs`, for a browser without WebGL,
+ * where no frame is ever drawn): work the first frame does not need waits for it, so its bytes do not
+ * compete with the view's code on the wire.
+ */
+export function afterFirstFrame(fallbackMs = 4000): Promise<void> {
+  return Promise.race([firstFrame, new Promise<void>((r) => setTimeout(r, fallbackMs))]);
+}
+
 let catPromise: Promise<Catalogue> | null = null;
 /**
  * Loads the engine's catalogue once and sorts it brightest first (so a magnitude limit is a draw range).
- * The catalogue (390 kB) is a chunk of its own, fetched after the view's code: the first frame of the
- * sky does not wait for it, and the stars appear a moment later.
+ * The catalogue (390 kB, 100 kB as brotli) is a chunk of its own, fetched once the first frame is drawn
+ * (see afterFirstFrame): the first frame of the sky does not wait for it, and the stars appear a moment later.
  */
 export function loadCatalogue(): Promise<Catalogue> {
-  catPromise ??= import('../../lib/sky/catalogue/index').then((m) => {
+  catPromise ??= afterFirstFrame().then(() => import('../../lib/sky/catalogue/index')).then((m) => {
     const c = m.loadCatalogue();
     const n: number = c.count;
     const key = (i: number) => (Number.isNaN(c.vmag[i]) ? 99 : c.vmag[i]);

@@ -68,6 +68,4 @@ export function errorText(e: unknown): string {
 }
 
 /** Only same-site paths are followed after sign-in (no open redirect). */
-export function safeNext(next: string | null | undefined, fallback = '/dashboard'): string {
-  return next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : fallback;
-}
+export { safeNext } from '../safe-next';

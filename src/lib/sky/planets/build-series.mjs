@@ -6,6 +6,8 @@
  *
  * Source of the full series: the astronomia npm package (MIT licence, data/vsop87B*.js, a transcription
  * of the IMCCE files). Run by hand after changing the target:  node src/lib/sky/planets/build-series.mjs
+ * The sky view in the browser uses a lighter cut (vsop87b-view.json, see planets/README.md):
+ *   TARGET=1 TARGET_EARTH=0.5 OUT=vsop87b-view.json node src/lib/sky/planets/build-series.mjs
  * Prints, per body, the terms kept and the worst difference found.
  */
 import { writeFileSync } from 'node:fs';
@@ -19,6 +21,8 @@ const dataDir = join(dirname(require.resolve('astronomia/package.json')), 'data'
 const PLANETS = ['mercury', 'venus', 'earth', 'mars', 'jupiter', 'saturn', 'uranus', 'neptune'];
 const TARGET_ARCSEC = { planet: Number(process.env.TARGET ?? 0.1), earth: Number(process.env.TARGET_EARTH ?? 0.04) };
 const AS = 180 / Math.PI * 3600;
+/** Significant digits kept of each coefficient (11 = the source's own; the view's 1″ cut needs 8). */
+const DIGITS = Number(process.env.DIGITS ?? 11);
 
 const full = {};
 for (const p of PLANETS) full[p] = (await import(pathToFileURL(join(dataDir, `vsop87B${p}.js`)).href)).default;
@@ -88,8 +92,10 @@ for (const p of PLANETS) {
   const s = truncate(FULL[p], 10 ** lo);
   const w = worst(p, s);
   // 10 significant digits are kept of every coefficient (their own precision is 11).
-  out.bodies[p] = Object.fromEntries(Object.entries(s).map(([k, rows]) => [k, rows.map((r) => r.map((x) => Number(x.toPrecision(11))))]));
+  out.bodies[p] = Object.fromEntries(Object.entries(s).map(([k, rows]) => [k, rows.map((r) => r.map((x) => Number(x.toPrecision(DIGITS))))]));
   console.log(`${p}: ${count(s)} of ${count(FULL[p])} terms, eps 1e${lo.toFixed(2)}, worst ${w.toFixed(3)}″`);
 }
-writeFileSync(join(here, 'vsop87b.json'), JSON.stringify(out));
-console.log('wrote', join(here, 'vsop87b.json'));
+// OUT names another file (the sky view's lighter series: TARGET=1 TARGET_EARTH=0.5 OUT=vsop87b-view.json).
+const file = join(here, process.env.OUT ?? 'vsop87b.json');
+writeFileSync(file, JSON.stringify(out));
+console.log('wrote', file);
