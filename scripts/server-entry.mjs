@@ -90,7 +90,10 @@ export function listener(req, res) {
     stream.pipe(res);
     return;
   }
-  compress(req, res, () => handler(req, res));
+  // The socket's address goes to Astro as a local, where no header can forge it: Astro's own
+  // clientAddress believes the first X-Forwarded-For value (src/lib/server/proxy.ts decides whom to believe).
+  const locals = { peerAddress: req.socket.remoteAddress ?? '', peerEncrypted: Boolean(req.socket.encrypted) };
+  compress(req, res, () => handler(req, res, undefined, locals));
 }
 
 const host = process.env.HOST ?? '127.0.0.1';

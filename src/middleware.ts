@@ -4,6 +4,7 @@ import { defineMiddleware } from 'astro:middleware';
 import { readSession } from './lib/server/auth';
 import { authenticateBearer, bearerOf, scopeAllows, sessionOnly } from './lib/server/auth/tokens';
 import { clientAddress, errorResponse, HttpError } from './lib/server/http';
+import { resolveOriginParts, trustFromEnv } from './lib/server/proxy';
 
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
 
@@ -16,11 +17,10 @@ function crossOriginRefusal(ctx: APIContext): Response | null {
   if (SAFE.has(ctx.request.method)) return null;
   const origin = ctx.request.headers.get('origin');
   const site = ctx.request.headers.get('sec-fetch-site');
-  const host = ctx.request.headers.get('x-forwarded-host') ?? ctx.request.headers.get('host') ?? ctx.url.host;
   let ok = true;
   if (origin !== null) {
     try {
-      ok = origin !== 'null' && new URL(origin).host === host;
+      ok = origin !== 'null' && new URL(origin).origin === ownOrigin(ctx);
     } catch {
       ok = false;
     }
@@ -28,6 +28,17 @@ function crossOriginRefusal(ctx: APIContext): Response | null {
     ok = site === 'same-origin' || site === 'none';
   }
   return ok ? null : errorResponse(new HttpError(403, 'cross_origin', 'Cross-origin requests are not allowed.'));
+}
+
+/**
+ * Scheme and host the client used: the socket and Host header, or X-Forwarded-Host/-Proto when the peer
+ * is a proxy named by TRUST_PROXY (src/lib/server/proxy.ts). Under `astro dev` (no peer), the request URL.
+ */
+function ownOrigin(ctx: APIContext): string {
+  const peer = ctx.locals.peerAddress;
+  if (typeof peer !== 'string') return ctx.url.origin;
+  const { host, proto } = resolveOriginParts(ctx.request.headers, peer, ctx.locals.peerEncrypted === true, trustFromEnv());
+  return new URL(`${proto}://${host ?? ctx.url.host}`).origin;
 }
 
 /**
@@ -90,7 +101,8 @@ async function withSecurityHeaders(ctx: APIContext, response: Response): Promise
   const apply = (h: Headers) => {
     h.set('content-security-policy', contentSecurityPolicy(ctx.url.pathname, hashes));
     h.set('x-content-type-options', 'nosniff');
-    h.set('referrer-policy', 'strict-origin-when-cross-origin');
+    // A page may ask for a stricter policy (the shared-scene page sends no-referrer: its URL is the token).
+    if (!h.has('referrer-policy')) h.set('referrer-policy', 'strict-origin-when-cross-origin');
     if (!embed) h.set('x-frame-options', 'DENY');
   };
   try {

@@ -54,6 +54,21 @@ function tokenFromLog(email: string): string {
   return m[1];
 }
 
+/** Opens the address-confirmation link the server logged for `email` (the mail is sent after the answer). */
+async function verifyFromLog(email: string): Promise<void> {
+  for (let i = 0; i < 50; i++) {
+    const log = s.log();
+    const at = log.lastIndexOf(`To: ${email}`);
+    const m = at >= 0 ? /\/verify\/([A-Za-z0-9_-]{20,})/.exec(log.slice(at)) : null;
+    if (m) {
+      ok(await new ApiClient(s.url).json('GET', `/verify/${m[1]}`).then((r) => ({ ...r, data: {} })), 200, 'verify');
+      return;
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`no confirmation mail to ${email} in the server log`);
+}
+
 const editor = () => fx.cast.clients.editor;
 const owner = () => fx.cast.clients.owner;
 
@@ -73,6 +88,7 @@ const fresh = {
     const email = `${unique('member')}@larkspur.example`;
     const c = new ApiClient(s.url);
     ok(await c.post('/api/auth/sign-up', { email, password: 'audit-password-1', name: 'Audit member' }), 201, 'sign-up');
+    await verifyFromLog(email);
     ok(await owner().post(`/api/teams/${fx.teamId}/invitations`, { email, role: 'viewer' }), 201, 'invite');
     ok(await c.post(`/api/invitations/${tokenFromLog(email)}/accept`), 200, 'accept');
     return ok(await c.get('/api/me'), 200, 'me').user.id as string;
@@ -222,6 +238,7 @@ const TABLE: Record<string, Entry> = {
   'POST /api/auth/password-reset/confirm': { expect: ALL(400), req: () => ({ json: { token: 'x'.repeat(43), password: 'audit-password-2' } }) },
   // wrong current password: nothing changes, but only a signed-in caller gets that far
   'POST /api/auth/password': { expect: signedIn(400), req: () => ({ json: { currentPassword: 'not-the-password', newPassword: 'audit-password-2' } }) },
+  'POST /api/auth/verify-email': { expect: signedIn(409) },
   'GET /api/me': { expect: signedIn(200) },
   'PATCH /api/me': { expect: signedIn(200), req: ({ caller }) => ({ json: { name: `Audit ${caller}` } }) },
 

@@ -99,7 +99,8 @@ describe('members', () => {
     const dome = created.data.team.id as string;
     // Bring the viewer in through an invitation, then make them an owner.
     await as.editor.post(`/api/teams/${dome}/invitations`, { email: DEMO.viewer, role: 'viewer' });
-    const m = await mail.waitFor(DEMO.viewer, /Dome Crew/);
+    const m = await mail.waitFor(DEMO.viewer, /invitation to a team/);
+    expect(m.text).toContain('Dome Crew');
     const token = m.text.match(/\/invitations\/([A-Za-z0-9_-]+)/)![1]!;
     expect((await as.viewer.post(`/api/invitations/${token}/accept`)).status).toBe(200);
     expect((await as.editor.patch(`/api/teams/${dome}/members/${ids.viewer}`, { role: 'owner' })).status).toBe(200);
@@ -139,7 +140,10 @@ describe('invitations', () => {
     expect(r.data).toMatchObject({ mailed: true, invitation: { email: invitee, role: 'reviewer' } });
     expect(JSON.stringify(r.data)).not.toMatch(/token/i);
 
-    const m = await mail.waitFor(invitee, /Larkspur Ridge Observatory/);
+    const m = await mail.waitFor(invitee, /invitation to a team/);
+    // Names chosen by users (the inviter's, the team's) stay out of the subject (issue 17 finding 6).
+    expect(m.subject).toBe('An invitation to a team on Armilla');
+    expect(m.text).toContain('Larkspur Ridge Observatory');
     const link = m.text.match(/(https?:\/\/\S+)\/invitations\/([A-Za-z0-9_-]+)/);
     expect(link, m.text).not.toBeNull();
     expect(link![1]).toBe(s.url);
@@ -162,6 +166,17 @@ describe('invitations', () => {
 
     const newcomer = new ApiClient(s.url);
     expect((await newcomer.post('/api/auth/sign-up', { email: invitee, password: 'newcomer password', name: 'Nell Newcomer', personalTeam: false })).status).toBe(201);
+    // Signing up with the address proves nothing: the link mailed to it must be opened first.
+    const unverified = await newcomer.post(`/api/invitations/${token}/accept`);
+    expect(unverified.status).toBe(403);
+    expect(unverified.data.error.code).toBe('email_unverified');
+    expect((await newcomer.get('/api/me')).data.emailVerified).toBe(false);
+    const vm = await mail.waitFor(invitee, /Confirm your e-mail address/);
+    const verify = vm.text.match(/https?:\/\/\S+\/verify\/([A-Za-z0-9_-]+)/);
+    expect(verify, vm.text).not.toBeNull();
+    expect((await new ApiClient(s.url).request('GET', `/verify/${verify![1]}`)).status).toBe(200);
+    expect((await new ApiClient(s.url).request('GET', `/verify/${verify![1]}`)).status).toBe(404);
+    expect((await newcomer.get('/api/me')).data.emailVerified).toBe(true);
     const accepted = await newcomer.post(`/api/invitations/${token}/accept`);
     expect(accepted.status).toBe(200);
     expect(accepted.data.team).toEqual({ id: teamId, name: 'Larkspur Ridge Observatory', role: 'reviewer' });

@@ -31,7 +31,5 @@ export async function api<T = unknown>(method: string, path: string, body?: unkn
   return data as T;
 }
 
-/** Only same-site paths are followed after sign-in (no open redirect). */
-export function safeNext(next: string | null | undefined, fallback = '/dashboard'): string {
-  return next && next.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : fallback;
-}
+/** Only same-site paths are followed after sign-in (no open redirect): see src/lib/safe-next.ts. */
+export { safeNext } from '../../lib/safe-next';

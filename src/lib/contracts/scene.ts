@@ -28,14 +28,21 @@ export { knownKeysOnly };
 
 /** Ids inside a list (targets, pins, steps) must be unique: steps, comments and pins point at them. */
 function uniqueIds<T extends { id: string }>(item: z.ZodType<T, z.ZodTypeDef, unknown>, max: number) {
-  return boundedArray(item, max)
-    .superRefine((list, ctx) => {
-      const seen = new Set<string>();
-      list.forEach((x, i) => {
-        if (seen.has(x.id)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: [i, 'id'], message: `duplicate id "${x.id}"` });
-        seen.add(x.id);
-      });
-    });
+  return boundedArray(item, max).superRefine((list, ctx) => {
+    // zod runs this refinement even when the list was refused (too long, not a list): look only at a
+    // list that passed, and stop at the first duplicate.
+    if (!Array.isArray(list) || list.length > max) return;
+    const seen = new Set<string>();
+    for (let i = 0; i < list.length; i++) {
+      const id = (list[i] as { id?: unknown } | null)?.id;
+      if (typeof id !== 'string') continue;
+      if (seen.has(id)) {
+        ctx.addIssue({ code: z.ZodIssueCode.custom, path: [i, 'id'], message: `duplicate id "${id}"` });
+        return;
+      }
+      seen.add(id);
+    }
+  });
 }
 
 export const MAX_TARGETS = 5000;
@@ -122,6 +129,7 @@ export const thumbnailSchema = z
       ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'must be a PNG data URL (data:image/png;base64,…) of at most 512 KiB' });
       return z.NEVER;
     }
+    // Declared and decoded size are checked on the server (src/lib/server/png-check.ts, scene-service.ts).
     return bytes;
   });
 

@@ -2,15 +2,17 @@
 
 export type Cell = string | number | boolean | null | undefined;
 
-/** Characters that make a spreadsheet treat a cell as a formula (CSV injection). */
+/** Characters that make a spreadsheet treat a cell as a formula (CSV injection; OWASP "CSV Injection"). */
 const FORMULA_START = /^[=+\-@\t\r]/;
+/** A whole cell that is a plain decimal number ("-12.5", "+3", "1e-7") is left as it is. */
+const PLAIN_NUMBER = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/;
 
 export function csvField(value: Cell): string {
   if (value === null || value === undefined) return '';
   let s = typeof value === 'number' ? (Number.isFinite(value) ? String(value) : '') : String(value);
-  // A text cell starting like a formula is prefixed with an apostrophe so spreadsheets show it as text.
-  // Numbers (which may start with '-') are left alone.
-  if (typeof value === 'string' && FORMULA_START.test(s) && !/^[+-]?\d/.test(s)) s = `'${s}`;
+  // A text cell starting like a formula is prefixed with an apostrophe so spreadsheets show it as text,
+  // unless the whole cell is a plain number ("-2+3+cmd|…" starts like one but is not).
+  if (typeof value === 'string' && FORMULA_START.test(s) && !PLAIN_NUMBER.test(s)) s = `'${s}`;
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 

@@ -9,11 +9,11 @@ import { audit } from './audit';
 import { hashToken, newToken } from './auth/secret-token';
 import { dummyHash, hashPassword, verifyPassword } from './auth/password';
 import type { DbOrTx } from './db/client';
-import { memberships, passwordResets, rateLimits, sessions, teams, users } from './db/schema';
+import { emailVerifications, memberships, passwordResets, rateLimits, sessions, teams, users } from './db/schema';
 import { HttpError } from './http';
-import { rateCount, rateLimit } from './rate-limit';
+import { rateCount, rateLimit, reserve } from './rate-limit';
 import { linkOrigin, sendMail } from './mail';
-import { passwordResetMail } from './mail/templates';
+import { passwordResetMail, verifyEmailMail } from './mail/templates';
 import { listTeamsOf, type TeamSummary } from './teams';
 
 // ---- input schemas (shared with the forms in src/components/account) ----
@@ -48,6 +48,54 @@ export interface PublicUser {
   name: string;
 }
 
+// ---- e-mail verification ----
+
+export const VERIFY_VALID_HOURS = 48;
+const VERIFY_MAIL_LIMIT = { perUser: 5, windowSec: 60 * 60 } as const;
+
+/** Mails a link that proves the address (at most 5 an hour per account). Not awaited by callers' answers. */
+export async function sendEmailVerification(db: DbOrTx, user: PublicUser, requestUrl: URL): Promise<void> {
+  await rateLimit(`verify-mail:${user.id}`, VERIFY_MAIL_LIMIT.perUser, VERIFY_MAIL_LIMIT.windowSec);
+  const token = newToken();
+  await db.insert(emailVerifications).values({
+    tokenHash: hashToken(token),
+    userId: user.id,
+    email: user.email,
+    expiresAt: new Date(Date.now() + VERIFY_VALID_HOURS * 3600_000),
+  });
+  const mail = verifyEmailMail({ name: user.name, url: `${linkOrigin(requestUrl)}/verify/${token}`, validHours: VERIFY_VALID_HOURS });
+  sendMail({ to: user.email, ...mail }).catch((e) => console.error('[mail] verification mail failed', e));
+}
+
+/** Spends a verification link: the account's address is verified if it is still the one the link was sent to. */
+export async function confirmEmail(db: DbOrTx, token: string): Promise<PublicUser | null> {
+  if (!token || token.length > 200) return null;
+  return db.transaction(async (tx) => {
+    const now = new Date();
+    const v = (
+      await tx
+        .select()
+        .from(emailVerifications)
+        .where(and(eq(emailVerifications.tokenHash, hashToken(token)), isNull(emailVerifications.usedAt), gt(emailVerifications.expiresAt, now)))
+        .limit(1)
+    )[0];
+    if (!v) return null;
+    const u = (await tx.select().from(users).where(eq(users.id, v.userId)).limit(1))[0];
+    if (!u || u.email !== v.email) return null;
+    await tx.update(emailVerifications).set({ usedAt: now }).where(eq(emailVerifications.tokenHash, v.tokenHash));
+    if (!u.emailVerifiedAt) {
+      await tx.update(users).set({ emailVerifiedAt: now }).where(eq(users.id, u.id));
+      await audit(tx, { userId: u.id, action: 'account.email_verified', subjectType: 'user', subjectId: u.id });
+    }
+    return { id: u.id, email: u.email, name: u.name };
+  });
+}
+
+export async function isEmailVerified(db: DbOrTx, userId: string): Promise<boolean> {
+  const r = await db.select({ at: users.emailVerifiedAt }).from(users).where(eq(users.id, userId)).limit(1);
+  return Boolean(r[0]?.at);
+}
+
 // ---- tokens: the mail carries the token, the database only its SHA-256 ----
 
 /** 256 random bits, base64url. */
@@ -55,17 +103,20 @@ export interface PublicUser {
 // ---- throttling ----
 
 /** Failed sign-ins allowed per window, per e-mail address and per client address. */
-export const SIGN_IN_LIMITS = { perEmail: 5, perAddress: 30, windowSec: 15 * 60 } as const;
+/**
+ * Sign-in limits (failures only; a success gives its attempt back). Hard limits only where the sender
+ * meets them itself: 5 per (e-mail, address) and 30 per address in 15 minutes. Per e-mail from anywhere,
+ * a back-off instead of a lock a stranger could trigger: 10 attempts a minute while the e-mail has fewer
+ * than 10 failures in 15 minutes, then 3, and 1 a minute past 40 — the owner waits a minute at most.
+ */
+export const SIGN_IN_LIMITS = {
+  perPair: 5,
+  perAddress: 30,
+  windowSec: 15 * 60,
+  perEmailMinute: (failures15: number) => (failures15 < 10 ? 10 : failures15 < 40 ? 3 : 1),
+} as const;
 const RESET_LIMITS = { perEmail: 5, perAddress: 20, windowSec: 60 * 60 } as const;
 const SIGN_UP_LIMITS = { perAddress: 50, windowSec: 60 * 60 } as const;
-
-const tooMany = (windowSec: number, now = Date.now()) => {
-  const nowSec = Math.floor(now / 1000);
-  const windowStart = Math.floor(nowSec / windowSec) * windowSec;
-  return new HttpError(429, 'rate_limited', 'Too many failed attempts; try again later.', undefined, undefined, {
-    'retry-after': String(Math.max(1, windowStart + windowSec - nowSec)),
-  });
-};
 
 const INVALID_CREDENTIALS = () => new HttpError(401, 'invalid_credentials', 'The e-mail address or the password is wrong.');
 
@@ -76,12 +127,17 @@ export async function findUserByEmail(db: DbOrTx, email: string) {
   return rows[0] ?? null;
 }
 
-const isUniqueViolation = (e: unknown) => /UNIQUE constraint failed/i.test(String((e as { message?: string })?.message ?? e));
+const isUniqueViolation = (e: unknown): boolean => {
+  const err = e as { message?: string; code?: string; cause?: unknown } | null;
+  if (/UNIQUE constraint failed|SQLITE_CONSTRAINT/i.test(`${err?.code ?? ''} ${err?.message ?? e}`)) return true;
+  return err?.cause !== undefined && err.cause !== e ? isUniqueViolation(err.cause) : false;
+};
 
 export async function signUp(
   db: DbOrTx,
   input: z.infer<typeof signUpInput>,
   clientAddr: string,
+  requestUrl?: URL,
 ): Promise<{ user: PublicUser; teams: TeamSummary[] }> {
   await rateLimit(`signup:addr:${clientAddr}`, SIGN_UP_LIMITS.perAddress, SIGN_UP_LIMITS.windowSec);
   if (await findUserByEmail(db, input.email)) throw new HttpError(409, 'email_taken', 'An account with this e-mail address exists already.', 'email');
@@ -100,33 +156,66 @@ export async function signUp(
       await audit(tx, { userId: user.id, action: 'account.create', subjectType: 'user', subjectId: user.id });
     });
   } catch (e) {
-    if (isUniqueViolation(e)) throw new HttpError(409, 'email_taken', 'An account with this e-mail address exists already.', 'email');
+    // Two sign-ups with one address at once: the loser meets the unique index (however the driver words it).
+    if (isUniqueViolation(e) || (await findUserByEmail(db, input.email))) {
+      throw new HttpError(409, 'email_taken', 'An account with this e-mail address exists already.', 'email');
+    }
     throw e;
   }
+  // The address is unproven until the mailed link is opened (invitations and comment notices wait for it).
+  if (requestUrl) await sendEmailVerification(db, user, requestUrl).catch((e) => console.error('[mail] verification not sent', e));
   return { user, teams: await listTeamsOf(db, user.id) };
 }
+
+/** Sign-in attempts of this process in progress, per limit key (see `signIn`). */
+const signInFlight = new Map<string, number>();
 
 /**
  * Checks an e-mail/password pair. Unknown e-mails are compared against a dummy hash so that both
  * failures take the same time and answer the same message. Only failures count towards the limits.
  */
 export async function signIn(db: DbOrTx, input: z.infer<typeof signInInput>, clientAddr: string): Promise<PublicUser> {
-  const { perEmail, perAddress, windowSec } = SIGN_IN_LIMITS;
-  const emailKey = `signin:email:${input.email}`;
-  const addrKey = `signin:addr:${clientAddr}`;
-  if ((await rateCount(emailKey, windowSec)) >= perEmail || (await rateCount(addrKey, windowSec)) >= perAddress) {
-    throw tooMany(windowSec);
+  const { perPair, perAddress, windowSec, perEmailMinute } = SIGN_IN_LIMITS;
+  const email = input.email;
+  const pairKey = `signin:pair:${email}:${clientAddr}`;
+  const minuteKey = `signin:email-min:${email}`;
+  const limits = [
+    { key: pairKey, limit: perPair, windowSec },
+    { key: `signin:addr:${clientAddr}`, limit: perAddress, windowSec },
+    { key: minuteKey, limit: perEmailMinute(0), windowSec: 60 },
+  ];
+  // Cheap gates first, without writing (every write is an fsync on the event loop): this process's
+  // attempts in progress, taken before anything is awaited so a burst is refused without touching the
+  // database; then the counts so far.
+  const refuse = (l: { windowSec: number }) =>
+    new HttpError(429, 'rate_limited', 'Too many attempts; try again later.', undefined, undefined, {
+      'retry-after': String(l.windowSec - (Math.floor(Date.now() / 1000) % l.windowSec) || 1),
+    });
+  for (const l of limits) if ((signInFlight.get(l.key) ?? 0) >= l.limit) throw refuse(l);
+  for (const l of limits) signInFlight.set(l.key, (signInFlight.get(l.key) ?? 0) + 1);
+  try {
+    // The e-mail's back-off tier follows its failures in the last 15 minutes.
+    limits[2]!.limit = perEmailMinute(await rateCount(`signin:email:${email}`, windowSec));
+    for (const l of limits) {
+      if ((signInFlight.get(l.key) ?? 1) - 1 + (await rateCount(l.key, l.windowSec)) >= l.limit) throw refuse(l);
+    }
+    // The authoritative check: reserved before scrypt, atomically in the database (other instances
+    // included), so concurrent attempts cannot all pass a check of "4 so far".
+    const attempt = await reserve([...limits, { key: `signin:email:${email}`, limit: Number.MAX_SAFE_INTEGER, windowSec }]);
+    const user = await findUserByEmail(db, email);
+    const ok = await verifyPassword(user?.passwordHash ?? (await dummyHash()), input.password);
+    if (!user || !ok) throw INVALID_CREDENTIALS();
+    // Only failures count: the attempt is given back, and this address's failures for the e-mail forgotten.
+    await attempt.release();
+    await db.delete(rateLimits).where(eq(rateLimits.key, pairKey));
+    return { id: user.id, email: user.email, name: user.name };
+  } finally {
+    for (const l of limits) {
+      const n = (signInFlight.get(l.key) ?? 1) - 1;
+      if (n > 0) signInFlight.set(l.key, n);
+      else signInFlight.delete(l.key);
+    }
   }
-  const user = await findUserByEmail(db, input.email);
-  const ok = await verifyPassword(user?.passwordHash ?? (await dummyHash()), input.password);
-  if (!user || !ok) {
-    await rateLimit(emailKey, Number.MAX_SAFE_INTEGER, windowSec);
-    await rateLimit(addrKey, Number.MAX_SAFE_INTEGER, windowSec);
-    throw INVALID_CREDENTIALS();
-  }
-  // A success clears the e-mail's failure count (not the address's: one address may try many accounts).
-  await db.delete(rateLimits).where(eq(rateLimits.key, emailKey));
-  return { id: user.id, email: user.email, name: user.name };
 }
 
 export const RESET_VALID_MINUTES = 60;
@@ -189,7 +278,7 @@ export async function updateProfile(db: DbOrTx, userId: string, input: z.infer<t
   return { id: u.id, email: u.email, name: u.name };
 }
 
-export async function me(db: DbOrTx, user: PublicUser): Promise<{ user: PublicUser; teams: TeamSummary[] }> {
-  return { user: { id: user.id, email: user.email, name: user.name }, teams: await listTeamsOf(db, user.id) };
+export async function me(db: DbOrTx, user: PublicUser): Promise<{ user: PublicUser; teams: TeamSummary[]; emailVerified: boolean }> {
+  return { user: { id: user.id, email: user.email, name: user.name }, teams: await listTeamsOf(db, user.id), emailVerified: await isEmailVerified(db, user.id) };
 }
 

@@ -2,10 +2,11 @@
  * Review comments on a scene: by team members (reviewer+) or by guests on a reviewer link.
  * Bodies are Markdown kept as text; the API never returns HTML.
  */
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import type { DbOrTx } from './db/client';
 import { comments, memberships, scenes, users } from './db/schema';
+import { oneLine } from './mail/templates';
 import { audit } from './audit';
 import { badRequest, notFound } from './http';
 import type { Anchor, CommentCreateBody, CommentOut } from '../contracts/comment';
@@ -132,14 +133,15 @@ export async function notifyComment(db: DbOrTx, scene: SceneRow, c: CommentOut, 
       .select({ id: users.id, email: users.email })
       .from(memberships)
       .innerJoin(users, eq(users.id, memberships.userId))
-      .where(and(eq(memberships.teamId, scene.teamId), inArray(memberships.role, ['owner', 'editor'])));
+      .where(and(eq(memberships.teamId, scene.teamId), inArray(memberships.role, ['owner', 'editor']), isNotNull(users.emailVerifiedAt)));
     const to = recipients.filter((r) => r.id !== c.author.userId);
     if (!to.length) return 0;
     const { sendMail } = await import('./mail/index');
     const url = `${origin.replace(/\/+$/, '')}/scenes/${scene.id}#comment-${c.id}`;
     const who = c.author.guest ? `${c.author.name} (guest on a review link)` : c.author.name;
     const quote = c.body.length > 600 ? `${c.body.slice(0, 600)}…` : c.body;
-    const subject = `New comment on “${scene.title}”`;
+    // Titles are chosen by users: one line, bounded (see oneLine in mail/templates.ts).
+    const subject = `New comment on “${oneLine(scene.title, 60)}”`;
     const text = `${who} commented on the scene “${scene.title}”:\n\n${quote}\n\nOpen it: ${url}\n`;
     const html = `<p>${esc(who)} commented on the scene “${esc(scene.title)}”:</p><blockquote><pre style="white-space:pre-wrap;font-family:inherit">${esc(quote)}</pre></blockquote><p><a href="${esc(url)}">Open the comment</a></p>`;
     await Promise.all(to.map((r) => sendMail({ to: r.email, subject, text, html })));

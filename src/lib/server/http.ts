@@ -1,6 +1,7 @@
 import type { APIContext, APIRoute } from 'astro';
 import { ZodError, type ZodType, type ZodTypeDef } from 'zod';
 import { nanoid } from 'nanoid';
+import { resolveClientAddress, trustFromEnv } from './proxy';
 
 /** The one error type of the server. `status` follows the API contract. */
 export class HttpError extends Error {
@@ -144,7 +145,14 @@ export async function parseJson<T>(schema: ZodType<T, ZodTypeDef, unknown>, requ
 /** Strict ISO 8601 UTC instant (`Z` or `+00:00`); a time without a zone is ambiguous and refused. */
 export const ISO_UTC_RE = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]00:?00)$/;
 
-export function clientAddress(ctx: Pick<APIContext, 'request' | 'clientAddress'>): string {
+/**
+ * The client's address for rate limits: the TCP peer (set by our server as `locals.peerAddress`), or
+ * what the proxies named by `TRUST_PROXY` vouch for (src/lib/server/proxy.ts). Never a header the client
+ * chose. Under `astro dev` (no peer) Astro's own value.
+ */
+export function clientAddress(ctx: Pick<APIContext, 'request' | 'clientAddress' | 'locals'>): string {
+  const peer = ctx.locals?.peerAddress;
+  if (typeof peer === 'string') return resolveClientAddress(peer, ctx.request.headers.get('x-forwarded-for'), trustFromEnv()) || 'unknown';
   try {
     return ctx.clientAddress;
   } catch {

@@ -36,3 +36,42 @@ export async function rateCount(key: string, windowSec: number, now = Date.now()
 export async function pruneRateLimits(now = Date.now()): Promise<void> {
   await db.delete(rateLimits).where(sql`${rateLimits.windowStart} < ${Math.floor(now / 1000) - 86_400}`);
 }
+
+/** A counted attempt that can be given back (see `reserve`). */
+export interface Reservation {
+  /** Takes the hit back (a success that should not count, or an attempt refused by another limit). */
+  release(): Promise<void>;
+}
+
+/**
+ * Reserves one attempt under several limits at once, before the expensive check it guards: each counter
+ * is increased atomically in the database first (so concurrent requests, in any instance, cannot all
+ * read "4 of 5" and all proceed) and the attempt is refused when any is over its limit — the hits are
+ * then given back, so refused attempts do not count. 429 with the longest Retry-After of the limits hit.
+ */
+export async function reserve(limits: { key: string; limit: number; windowSec: number }[], now = Date.now()): Promise<Reservation> {
+  const rows = limits.map((l) => ({ key: l.key, windowStart: Math.floor(now / 1000 / l.windowSec) * l.windowSec, count: 1 }));
+  // One statement for every counter: one write (and one fsync) an attempt, whatever the number of limits.
+  const counts = await db
+    .insert(rateLimits)
+    .values(rows)
+    .onConflictDoUpdate({ target: [rateLimits.key, rateLimits.windowStart], set: { count: sql`${rateLimits.count} + 1` } })
+    .returning({ key: rateLimits.key, count: rateLimits.count });
+  const countOf = new Map(counts.map((c) => [c.key, c.count]));
+  let released = false;
+  const release = async () => {
+    if (released) return;
+    released = true;
+    const match = sql.join(rows.map((r) => sql`(key = ${r.key} and window_start = ${r.windowStart})`), sql` or `);
+    await db.run(sql`update rate_limits set count = count - 1 where count > 0 and (${match})`);
+  };
+  let retryAfter = 0;
+  limits.forEach((l, i) => {
+    if ((countOf.get(l.key) ?? 1) > l.limit) retryAfter = Math.max(retryAfter, rows[i]!.windowStart + l.windowSec - Math.floor(now / 1000));
+  });
+  if (retryAfter > 0) {
+    await release();
+    throw new HttpError(429, 'rate_limited', 'Too many attempts; try again later.', undefined, undefined, { 'retry-after': String(Math.max(1, retryAfter)) });
+  }
+  return { release };
+}

@@ -5,6 +5,8 @@
 import { and, desc, eq, inArray, sql, type Placeholder } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/libsql';
 import { nanoid } from 'nanoid';
+import { ByteCache, cacheBudgetBytes, stringBytes } from './caches';
+import { checkPng } from './png-check';
 import type { User } from 'lucia';
 import type { Db, DbOrTx, Tx } from './db/client';
 import { envelopes, memberships, scenes, sceneVersions, sites } from './db/schema';
@@ -61,13 +63,25 @@ export async function writeTx<T>(db: DbOrTx, fn: (tx: Tx) => Promise<T>): Promis
  * The cache holds nothing another instance needs to see; it spares the hot read paths (shared links,
  * presenter streams) a full zod pass.
  */
-const DOC_CACHE_MAX = 500;
-const docCache = new Map<string, SceneDoc>();
+const docCache = new ByteCache<string, SceneDoc>('scene documents', cacheBudgetBytes(), (doc) => estimateDocBytes(doc));
+
+/**
+ * Bytes a parsed document holds, estimated without serialising it: strings at two bytes a character,
+ * a fixed cost per object (V8 headers, numbers, ids), the lists walked once.
+ */
+export function estimateDocBytes(doc: SceneDoc): number {
+  let n = 4096 + stringBytes(doc.title) + stringBytes(doc.description);
+  for (const t of doc.targets) n += 300 + stringBytes(t.name) + stringBytes(t.notes);
+  for (const p of doc.pins) n += 300 + stringBytes(p.label) + p.points.length * 64;
+  for (const st of doc.steps) n += 400 + stringBytes(st.title) + stringBytes(st.caption);
+  const mask = (doc.envelope as { horizonMask?: unknown[] } | null)?.horizonMask;
+  if (Array.isArray(mask)) n += mask.length * 64;
+  return n;
+}
 
 const docKey = (row: Pick<SceneRow, 'id' | 'version' | 'envelopeId'>) => `${row.id}:${row.version}:${row.envelopeId ?? ''}`;
 
 function remember(key: string, doc: SceneDoc) {
-  if (docCache.size >= DOC_CACHE_MAX) docCache.delete(docCache.keys().next().value!);
   docCache.set(key, doc);
 }
 
@@ -82,7 +96,7 @@ export function docOf(row: SceneRow): SceneDoc {
 
 /** The cached document of a scene state, if there is one: the cache's own object, never to be changed. */
 function cachedDocReadOnly(state: Pick<SceneRow, 'id' | 'version' | 'envelopeId'>): Readonly<SceneDoc> | undefined {
-  return docCache.get(docKey(state));
+  return docCache.peek(docKey(state));
 }
 
 function parseDoc(row: SceneRow): SceneDoc {
@@ -191,8 +205,11 @@ const stateKey = (s: SceneState) =>
  * the same, so the cache is a pure function of the database: an edit made through another instance
  * on the same file shows at once. It holds nothing about links (validity is checked on every request).
  */
-const PUBLIC_JSON_CACHE_MAX = 500;
-const publicJsonCache = new Map<string, { key: string; envelopeData: string | null; json: string }>();
+const publicJsonCache = new ByteCache<string, { key: string; envelopeData: string | null; json: string }>(
+  'shared-scene answers',
+  cacheBudgetBytes(),
+  (e) => 256 + stringBytes(e.key) + stringBytes(e.envelopeData) + stringBytes(e.json),
+);
 
 /** The public answer for a scene in `state` (as read by `resolveLink`), from the cache when it is current. */
 export async function publicSceneJson(db: DbOrTx, state: SceneState): Promise<string> {
@@ -210,8 +227,6 @@ export async function publicSceneJson(db: DbOrTx, state: SceneState): Promise<st
   const doc = docOf(row);
   const envelope = row.envelopeId ? (now.envelopeData === null ? null : envelopeOf(JSON.parse(now.envelopeData))) : doc.envelope;
   const json = JSON.stringify(publicScene(sceneOutOf({ ...row, hasThumbnail: hasThumbnailOf(row) }, doc, envelope)));
-  publicJsonCache.delete(row.id);
-  if (publicJsonCache.size >= PUBLIC_JSON_CACHE_MAX) publicJsonCache.delete(publicJsonCache.keys().next().value!);
   publicJsonCache.set(row.id, { key: stateKey(now), envelopeData: now.envelopeData, json });
   return json;
 }
@@ -430,6 +445,11 @@ export async function updateScene(
   action = 'scene.update',
   extraDetail: Record<string, unknown> = {},
 ): Promise<SceneOut> {
+  if (body.thumbnail) {
+    // Bounded in declared and decoded size (≤ 512 KiB in, inflated with a cap: milliseconds).
+    const check = checkPng(body.thumbnail);
+    if (!check.ok) throw new HttpError(400, 'invalid', `thumbnail: ${check.message}`, 'thumbnail');
+  }
   let result: { meta: SceneMeta; doc: SceneDoc; envelope: EnvelopeJson | null };
   try {
     result = await writeTx(db, async (tx) => {

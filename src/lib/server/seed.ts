@@ -40,7 +40,7 @@ export async function seedDemo(db: Db): Promise<boolean> {
     // Re-check inside the write transaction: two processes starting on one empty file seed once.
     const again = await tx.select({ n: sql<number>`count(*)` }).from(users);
     if (Number(again[0]?.n ?? 0) > 0) return false;
-    await tx.insert(users).values(who.map((w, i) => ({ id: ids[w], email: PEOPLE[w].email, name: PEOPLE[w].name, passwordHash: hashes[i]!, createdAt: now })));
+    await tx.insert(users).values(who.map((w, i) => ({ id: ids[w], email: PEOPLE[w].email, name: PEOPLE[w].name, passwordHash: hashes[i]!, createdAt: now, emailVerifiedAt: now })));
     await tx.insert(teams).values([
       { id: teamId, name: DEMO_TEAM, createdAt: now },
       { id: otherTeamId, name: OTHER_TEAM, createdAt: now },

@@ -237,6 +237,11 @@ export async function acceptInvitation(db: DbOrTx, user: User, token: string): P
       throw new HttpError(403, 'wrong_account', `This invitation was sent to ${inv.email}; sign in with that address to accept it.`);
     }
     if (await membership(tx, inv.teamId, user.id)) throw new HttpError(409, 'already_member', 'You are a member of this team already.');
+    // The address must be proven: otherwise whoever holds a leaked link could sign up with it and join.
+    const verified = await tx.select({ at: users.emailVerifiedAt }).from(users).where(eq(users.id, user.id)).limit(1);
+    if (!verified[0]?.at) {
+      throw new HttpError(403, 'email_unverified', `Confirm your e-mail address first: open the link we mailed to ${inv.email} (or ask for a new one on this page).`);
+    }
     await tx.insert(memberships).values({ teamId: inv.teamId, userId: user.id, role: inv.role, createdAt: now });
     await tx.update(invitations).set({ acceptedAt: now, acceptedBy: user.id }).where(eq(invitations.id, inv.id));
     await audit(tx, { teamId: inv.teamId, userId: user.id, action: 'member.join', subjectType: 'invitation', subjectId: inv.id, detail: { role: inv.role } });

@@ -14,6 +14,7 @@ import { sceneFor, toSceneOut, writeTx } from './scene-service';
 import { skyThumbnail, thumbnailEtag, thumbnailKey } from './thumbnails/render.server';
 import { readCapped } from './upload';
 import { isPng } from '../png';
+import { runCompute } from './compute';
 
 export { isPng };
 
@@ -24,7 +25,8 @@ export async function putThumbnail(db: DbOrTx, user: User, sceneId: string, requ
   const type = (request.headers.get('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
   if (type !== 'image/png') throw new HttpError(400, 'invalid', 'content-type: send the snapshot as image/png.', 'content-type');
   const bytes = await readCapped(request, MAX_PNG_BYTES);
-  if (!isPng(bytes)) throw new HttpError(422, 'invalid_png', 'The body is not a PNG image (bad signature or header).', 'body');
+  const check = await runCompute('pngCheck', bytes, { caller: `user:${user.id}` });
+  if (!check.ok) throw new HttpError(422, 'invalid_png', check.message, 'body');
   await writeTx(db, async (tx) => {
     await tx.update(scenes).set({ thumbnail: Buffer.from(bytes) }).where(eq(scenes.id, row.id));
     await audit(tx, { teamId: row.teamId, userId: user.id, action: 'scene.thumbnail', subjectType: 'scene', subjectId: row.id, detail: { bytes: bytes.length } });

@@ -17,6 +17,16 @@ describe('RFC 4180 writer', () => {
     expect(csvField('@sum')).toBe("'@sum");
     expect(csvField('-0.5')).toBe('-0.5');
   });
+  it('defuses cells that only start like a number (issue 17 finding 8; OWASP: = + - @ tab CR)', () => {
+    expect(csvField("-2+3+cmd|' /C calc'!A0")).toBe(`'-2+3+cmd|' /C calc'!A0`);
+    expect(csvField("+1+cmd|' /C calc'!A0")).toBe(`'+1+cmd|' /C calc'!A0`);
+    expect(csvField('\t=1+1')).toBe(`'\t=1+1`);
+    expect(csvField('\r=1+1')).toBe(`"'\r=1+1"`);
+    expect(csvField('-1e5')).toBe('-1e5');
+    expect(csvField('+12')).toBe('+12');
+    expect(csvField('-')).toBe("'-");
+    expect(csvField('Alpha -2')).toBe('Alpha -2');
+  });
   it('uses CRLF line ends and round-trips through a standard parser', () => {
     const text = toCsv(['name', 'notes', 'alt'], [
       ['A, the first', 'line1\nline2', 12.5],

@@ -17,7 +17,7 @@ let dir = '';
 let workerFile = '';
 const pools: ComputePool[] = [];
 const pool = (c: Partial<ComputeConfig>) => {
-  const p = new ComputePool({ threads: 1, maxQueue: 4, queueWaitMs: 30_000, budgetMs: 30_000, memoryMb: 256, workerFile, ...c });
+  const p = new ComputePool({ threads: 1, maxQueue: 4, queueWaitMs: 30_000, budgetMs: 30_000, memoryMb: 256, perCaller: 1, workerFile, ...c });
   pools.push(p);
   return p;
 };
@@ -82,6 +82,19 @@ describe('compute pool (worker threads)', () => {
     expect(lag).toBeLessThan(300);
     expect(await first).toMatchObject({ status: 422 });
     expect(await second).toMatchObject({ status: 422 });
+  }, 60_000);
+
+  it('lets one caller have one job at a time (429), others still queue', async () => {
+    const p = pool({ budgetMs: 300 });
+    const heavy = body(2000, 31);
+    const first = p.run('windows', heavy, { caller: 'addr:a' }).catch((e: unknown) => e);
+    const again = await p.run('windows', heavy, { caller: 'addr:a' }).catch((e: unknown) => e);
+    expect(again).toMatchObject({ status: 429, code: 'rate_limited' });
+    const other = p.run('windows', body(1, 1), { caller: 'addr:b', budgetMs: 30_000 });
+    expect(await first).toMatchObject({ status: 422 });
+    expect((await other).targets).toHaveLength(1);
+    // Once the first has ended, the caller may ask again.
+    expect((await p.run('windows', body(1, 1), { caller: 'addr:a', budgetMs: 30_000 })).targets).toHaveLength(1);
   }, 60_000);
 
   it('refuses an unknown job', () => {

@@ -1,11 +1,29 @@
 import { scrypt, randomBytes, timingSafeEqual, type ScryptOptions } from 'node:crypto';
+import { availableParallelism } from 'node:os';
 
 // scrypt is memory-hard (RFC 7914). N=2^15, r=8 uses 32 MiB per hash: ~70 ms on this class of machine.
 const PARAMS = { N: 1 << 15, r: 8, p: 1, maxmem: 64 * 1024 * 1024 } satisfies ScryptOptions;
 const KEYLEN = 32;
 
-function derive(password: string, salt: Buffer, p: ScryptOptions): Promise<Buffer> {
-  return new Promise((res, rej) => scrypt(password.normalize('NFKC'), salt, KEYLEN, p, (e, k) => (e ? rej(e) : res(k))));
+/**
+ * At most this many hashes at once per process (cores − 1, at least 1); the others wait their turn. Each
+ * is ~70 ms of a core: forty sign-ins at once would otherwise take every core from the event loop
+ * (issue 17: `/api/health` stalled for seconds behind a burst of sign-ins).
+ */
+const MAX_CONCURRENT = Math.max(1, availableParallelism() - 1);
+let running = 0;
+const waiting: (() => void)[] = [];
+
+async function derive(password: string, salt: Buffer, p: ScryptOptions): Promise<Buffer> {
+  if (running >= MAX_CONCURRENT) await new Promise<void>((go) => waiting.push(go));
+  else running++;
+  try {
+    return await new Promise((res, rej) => scrypt(password.normalize('NFKC'), salt, KEYLEN, p, (e, k) => (e ? rej(e) : res(k))));
+  } finally {
+    const next = waiting.shift();
+    if (next) next();
+    else running--;
+  }
 }
 
 /** `scrypt$N$r$p$salt$hash` (base64url): the parameters travel with the hash so they can be raised later. */

@@ -35,6 +35,8 @@ export interface ComputeConfig {
   budgetMs: number;
   /** Heap limit of each worker (`COMPUTE_MEMORY_MB`; default 512). */
   memoryMb: number;
+  /** Jobs one caller (`opts.caller`) may have running or queued at once (`COMPUTE_PER_CALLER`; default 1). */
+  perCaller: number;
   /** The worker module; null runs jobs in-process (dev and unit tests only). */
   workerFile: string | null;
 }
@@ -82,6 +84,7 @@ export function computeConfig(): ComputeConfig {
     queueWaitMs: envInt('COMPUTE_QUEUE_WAIT_MS', 5_000, 1, 600_000),
     budgetMs: envInt('COMPUTE_BUDGET_MS', 10_000, 1, 600_000),
     memoryMb: envInt('COMPUTE_MEMORY_MB', 512, 32, 16_384),
+    perCaller: envInt('COMPUTE_PER_CALLER', 1, 1, 1_000),
     workerFile: findWorkerFile(),
   };
 }
@@ -90,6 +93,13 @@ const busyError = (retryAfterSec: number) =>
   new HttpError(503, 'busy', 'The server is busy computing for others; try again shortly.', undefined, undefined, { 'retry-after': String(retryAfterSec) });
 const budgetError = (ms: number) =>
   new HttpError(422, 'compute_budget', `The computation ran past its budget of ${(ms / 1000).toFixed(ms % 1000 ? 1 : 0)} s; ask for fewer targets or a shorter span.`);
+
+export interface ComputeOptions {
+  /** Time budget once running, ms (default `COMPUTE_BUDGET_MS`). */
+  budgetMs?: number;
+  /** Who asks (`addr:…`, `user:…`): at most `perCaller` jobs of one caller at once, 429 past it. */
+  caller?: string;
+}
 
 interface Waiter {
   go: () => void;
@@ -101,6 +111,7 @@ export class ComputePool {
   private piscina: Piscina | null = null;
   private running = 0;
   private readonly queue: Waiter[] = [];
+  private readonly callers = new Map<string, number>();
   private readonly s = { completed: 0, failed: 0, overBudget: 0, busy: 0, runMs: 0, maxRunMs: 0 };
 
   constructor(readonly config: ComputeConfig) {
@@ -135,7 +146,35 @@ export class ComputePool {
     };
   }
 
-  async run<K extends ComputeKind>(kind: K, input: ComputeInput<K>, opts: { budgetMs?: number } = {}): Promise<ComputeOutput<K>> {
+  async run<K extends ComputeKind>(kind: K, input: ComputeInput<K>, opts: ComputeOptions = {}): Promise<ComputeOutput<K>> {
+    if (opts.caller === undefined) return this.runQueued(kind, input, opts);
+    return this.asCaller(opts.caller, () => this.runQueued(kind, input, opts));
+  }
+
+  /**
+   * Runs `fn` counted as one of `caller`'s jobs: 429 at once when the caller has `perCaller` in progress.
+   * A route wraps its whole handling in it (body read, validation, computation), so a burst of requests
+   * from one caller is refused before any of them is parsed.
+   */
+  async asCaller<T>(caller: string, fn: () => Promise<T>): Promise<T> {
+    const n = this.callers.get(caller) ?? 0;
+    if (n >= this.config.perCaller) {
+      this.s.busy++;
+      throw new HttpError(429, 'rate_limited', 'Wait for your computation in progress to finish before asking for another.', undefined, undefined, {
+        'retry-after': String(this.retryAfterSec()),
+      });
+    }
+    this.callers.set(caller, n + 1);
+    try {
+      return await fn();
+    } finally {
+      const left = (this.callers.get(caller) ?? 1) - 1;
+      if (left > 0) this.callers.set(caller, left);
+      else this.callers.delete(caller);
+    }
+  }
+
+  private async runQueued<K extends ComputeKind>(kind: K, input: ComputeInput<K>, opts: ComputeOptions): Promise<ComputeOutput<K>> {
     await this.slot();
     const budgetMs = opts.budgetMs ?? this.config.budgetMs;
     const t0 = performance.now();
@@ -243,8 +282,13 @@ export function computePool(): ComputePool {
 }
 
 /** Runs a job of the registry (jobs.ts) on the pool. Throws HttpError 503 (busy), 422 (over budget), 413 (out of memory). */
-export function runCompute<K extends ComputeKind>(kind: K, input: ComputeInput<K>, opts?: { budgetMs?: number }): Promise<ComputeOutput<K>> {
+export function runCompute<K extends ComputeKind>(kind: K, input: ComputeInput<K>, opts?: ComputeOptions): Promise<ComputeOutput<K>> {
   return computePool().run(kind, input, opts);
+}
+
+/** `ComputePool.asCaller` on the process's pool: one computation in progress per caller, refused before parsing. */
+export function asCaller<T>(caller: string, fn: () => Promise<T>): Promise<T> {
+  return computePool().asCaller(caller, fn);
 }
 
 /** For /api/health: the pool's figures, or null before its first use. */

@@ -3,20 +3,16 @@
  * input to a structured-clonable output (no database, no request, no globals that change). The worker
  * (`worker.ts`) imports this object; adding a job is adding one entry here. Inputs cross a thread
  * boundary by structured clone: plain objects, arrays, strings, numbers, `Date`s — no class instances,
- * no functions. A job signals a problem of its input by returning it (see `sceneFile`), not by throwing:
+ * no functions. A job signals a problem of its input by returning it (see `sceneImport`), not by throwing:
  * errors lose their fields on the way back from a thread.
  */
 import { windowsResponse, type WindowsBody } from '../sky-api';
 import { positionsCsv, windowsCsv } from '../../exports/tables';
 import { buildHandout } from '../../handout/handout';
-import { sceneFileSchema } from '../../exports/scene-json';
+import { readSceneImportBytes } from '../../exports/scene-import';
+import { checkPng } from '../png-check';
 import type { SceneOut } from '../../contracts/scene';
 import { nightData, type NightInput } from '../../sky/night';
-
-export interface ComputeIssue {
-  field?: string;
-  message: string;
-}
 
 export const jobs = {
   /** POST /api/sky/windows: a validated body → the response body. */
@@ -29,14 +25,10 @@ export const jobs = {
   night: (input: NightInput) => nightData(input),
   /** The printable handout's model (chart, events, targets) of a scene. */
   handout: (input: { scene: SceneOut }) => buildHandout(input.scene),
-  /** A scene file (parsed JSON) checked against the `armilla-scene` schema. */
-  sceneFile: (doc: unknown) => {
-    const r = sceneFileSchema.safeParse(doc);
-    if (r.success) return { ok: true as const, file: r.data };
-    const issue = r.error.issues[0];
-    const field = issue?.path.length ? issue.path.join('.') : undefined;
-    return { ok: false as const, issue: { field, message: issue?.message ?? 'invalid' } satisfies ComputeIssue };
-  },
+  /** An uploaded thumbnail: declared size bounded, image data inflated with a cap (see png-check.ts). */
+  pngCheck: (bytes: Uint8Array) => checkPng(bytes),
+  /** An uploaded scene file: bytes → JSON → the `armilla-scene` schema (see exports/scene-import.ts). */
+  sceneImport: (input: { bytes: Uint8Array; wrapped: boolean }) => readSceneImportBytes(input.bytes, input.wrapped),
 };
 
 export type Jobs = typeof jobs;

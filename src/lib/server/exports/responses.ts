@@ -34,7 +34,7 @@ export async function positionsResponse(scene: SceneOut, url: URL, payer: WorkPa
     payer.who,
     `This scene has ${scene.targets.length} targets; the positions export (with the next rise, transit and set of each) takes at most ${MAX_POSITION_ROWS}. The windows export and the scene JSON have no such limit.`,
   );
-  const csv = await runCompute('positionsCsv', { scene, at });
+  const csv = await runCompute('positionsCsv', { scene, at }, { caller: payer.key });
   return new Response(csv, { headers: csvHeaders(`${slug(scene.title)}-positions-${stamp}Z.csv`) });
 }
 
@@ -47,7 +47,7 @@ export async function windowsResponse(scene: SceneOut, url: URL, payer: WorkPaye
   const spanMs = to.getTime() - from.getTime();
   const stepSec = windowsStepSec(spanMs, scene.targets.length);
   await chargeWork(payer.key, windowsWork(scene.targets.length, spanMs, stepSec), payer.who, 'Ask for a shorter span.');
-  const csv = await runCompute('windowsCsv', { scene, from, to, stepSec });
+  const csv = await runCompute('windowsCsv', { scene, from, to, stepSec }, { caller: payer.key });
   return new Response(csv, { headers: csvHeaders(`${slug(scene.title)}-windows.csv`) });
 }
 
@@ -73,5 +73,5 @@ export async function handoutModel(scene: SceneOut, payer: WorkPayer) {
     payer.who,
     `This scene has ${scene.targets.length} targets; a handout takes at most ${MAX_HANDOUT_TARGETS}.`,
   );
-  return runCompute('handout', { scene });
+  return runCompute('handout', { scene }, { caller: payer.key });
 }

@@ -34,12 +34,26 @@ const ROLE_WORDS: Record<string, string> = {
   viewer: 'a viewer (watches scenes read-only)',
 };
 
+/**
+ * A name chosen by a user, as it may appear in a mail's body: one line, no control characters, at most
+ * `max` characters. Subjects never carry one (issue 17: a display name such as "URGENT: your mailbox is
+ * full, visit …" read as the mail's own words).
+ */
+export function oneLine(s: string, max = 80): string {
+  // eslint-disable-next-line no-control-regex
+  const flat = s.replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, ' ').replace(/\s+/g, ' ').trim();
+  return flat.length > max ? `${flat.slice(0, max - 1)}…` : flat;
+}
+
 export function invitationMail(p: { teamName: string; inviterName: string; role: string; url: string; expiresAt: Date }): RenderedMail {
-  const subject = `${p.inviterName} invited you to ${p.teamName} on Armilla`;
+  // The subject is ours alone: names chosen by users go in the body, quoted and bounded.
+  const subject = 'An invitation to a team on Armilla';
+  const inviter = oneLine(p.inviterName, 60);
+  const team = oneLine(p.teamName, 80);
   const roleText = ROLE_WORDS[p.role] ?? p.role;
   const until = p.expiresAt.toISOString().slice(0, 16).replace('T', ' ') + ' UTC';
   const text = [
-    `${p.inviterName} invited you to join the team "${p.teamName}" on Armilla as ${roleText}.`,
+    `The Armilla user “${inviter}” invited you to join the team “${team}” as ${roleText}.`,
     '',
     'Accept the invitation here (sign in or create an account with this e-mail address first):',
     p.url,
@@ -48,8 +62,8 @@ export function invitationMail(p: { teamName: string; inviterName: string; role:
   ].join('\n');
   const html = shell(
     subject,
-    `<h1 style="font-size:20px;margin:0 0 12px;">Join ${escapeHtml(p.teamName)}</h1>
-<p>${escapeHtml(p.inviterName)} invited you to join the team <strong>${escapeHtml(p.teamName)}</strong> on Armilla as ${escapeHtml(roleText)}.</p>
+    `<h1 style="font-size:20px;margin:0 0 12px;">An invitation to a team</h1>
+<p>The Armilla user “${escapeHtml(inviter)}” invited you to join the team <strong>“${escapeHtml(team)}”</strong> as ${escapeHtml(roleText)}.</p>
 ${button(p.url, 'Accept the invitation')}
 <p>Sign in or create an account with this e-mail address first. The link works once and until ${escapeHtml(until)}.</p>`,
   );
@@ -75,6 +89,29 @@ export function passwordResetMail(p: { name: string; url: string; validMinutes: 
 ${button(p.url, 'Choose a new password')}
 <p>The link works once and for ${p.validMinutes} minutes. Setting a new password signs you out everywhere else.
 If you did not ask for this, ignore this mail: your password stays as it is.</p>`,
+  );
+  return { subject, text, html };
+}
+
+export function verifyEmailMail(p: { name: string; url: string; validHours: number }): RenderedMail {
+  const subject = 'Confirm your e-mail address for Armilla';
+  const name = oneLine(p.name, 60);
+  const text = [
+    `Hello ${name},`,
+    '',
+    'Confirm that this address is yours by opening this link:',
+    p.url,
+    '',
+    `The link works for ${p.validHours} hours. Until then you cannot accept team invitations or receive comment notices.`,
+    'If you did not create an Armilla account, ignore this mail.',
+  ].join('\n');
+  const html = shell(
+    subject,
+    `<h1 style="font-size:20px;margin:0 0 12px;">Confirm your address</h1>
+<p>Hello ${escapeHtml(name)},</p>
+<p>Confirm that this address is yours.</p>
+${button(p.url, 'Confirm my address')}
+<p>The link works for ${p.validHours} hours. Until then you cannot accept team invitations or receive comment notices.</p>`,
   );
   return { subject, text, html };
 }

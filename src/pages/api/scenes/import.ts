@@ -9,6 +9,6 @@ import { importSceneFile, readSceneImport } from '../../../lib/server/imports/sc
  */
 export const POST = route(async ({ locals, request, url }) => {
   const user = requireUser(locals);
-  const { teamId, doc } = await readSceneImport(request, url);
-  return json({ scene: await importSceneFile(db, user, teamId, doc) }, 201);
+  const { teamId, file } = await readSceneImport(request, url);
+  return json({ scene: await importSceneFile(db, user, teamId, file) }, 201);
 });

@@ -8,6 +8,8 @@ export const users = sqliteTable(
     name: text().notNull(),
     passwordHash: text().notNull(),
     createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    /** When the owner proved the address by a mailed link; null until then (no invitations, no notices). */
+    emailVerifiedAt: integer({ mode: 'timestamp_ms' }),
   },
   (t) => [uniqueIndex('users_email_uq').on(t.email)],
 );
@@ -36,4 +38,19 @@ export const passwordResets = sqliteTable(
     usedAt: integer({ mode: 'timestamp_ms' }),
   },
   (t) => [index('password_resets_user_idx').on(t.userId)],
+);
+
+/** Links that prove an address: only the token's SHA-256 is stored; bound to the address it was sent to. */
+export const emailVerifications = sqliteTable(
+  'email_verifications',
+  {
+    tokenHash: text().primaryKey(),
+    userId: text()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    email: text().notNull(),
+    expiresAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    usedAt: integer({ mode: 'timestamp_ms' }),
+  },
+  (t) => [index('email_verifications_user_idx').on(t.userId)],
 );

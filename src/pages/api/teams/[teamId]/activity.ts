@@ -4,6 +4,7 @@ import { db } from '../../../../lib/server/db';
 import { auditLog, users } from '../../../../lib/server/db/schema';
 import { json, parseQuery, route } from '../../../../lib/server/http';
 import { authorize, requireUser } from '../../../../lib/server/policy';
+import { can } from '../../../../lib/contracts/roles';
 import { isoUtc } from '../../../../lib/contracts/scene-doc';
 
 const query = z.object({
@@ -12,10 +13,18 @@ const query = z.object({
   before: isoUtc.optional(),
 });
 
+function withoutEmail(detail: Record<string, unknown>): Record<string, unknown> {
+  const { email: _email, ...rest } = detail;
+  return rest;
+}
+
 /** The team's activity, newest first, from the audit log. */
 export const GET = route(async ({ locals, params, url }) => {
   const user = requireUser(locals);
-  await authorize(db, user, params.teamId!, 'team.read', 'Team');
+  const role = await authorize(db, user, params.teamId!, 'team.read', 'Team');
+  // Invited addresses are shown to those who may see the invitations themselves (GET …/invitations):
+  // for everyone else the activity says that someone was invited, not who (issue 17 finding 10).
+  const seesInvitees = can(role, 'team.manage');
   const q = parseQuery(query, url);
   const rows = await db
     .select({
@@ -41,7 +50,7 @@ export const GET = route(async ({ locals, params, url }) => {
       subjectType: r.subjectType,
       subjectId: r.subjectId,
       user: r.userId ? { id: r.userId, name: r.userName ?? '' } : null,
-      detail: r.detail ?? {},
+      detail: seesInvitees || !r.action.startsWith('member.invite') ? (r.detail ?? {}) : withoutEmail(r.detail ?? {}),
     })),
   });
 });
