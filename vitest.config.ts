@@ -1,4 +1,4 @@
-import { defineConfig } from 'vitest/config';
+import { configDefaults, defineConfig } from 'vitest/config';
 
 export default defineConfig({
   test: {
@@ -17,6 +17,18 @@ export default defineConfig({
         test: {
           name: 'integration',
           include: ['tests/integration/**/*.test.ts'],
+          exclude: [...configDefaults.exclude, 'tests/integration/adversarial.test.ts'],
+          globalSetup: ['tests/integration/helpers/global-setup.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+        },
+      },
+      {
+        // The adversarial suite times /api/health while hostile requests run: `npm test` runs it on its own,
+        // after the other projects, so other test files' servers do not share its two cores.
+        test: {
+          name: 'hostile',
+          include: ['tests/integration/adversarial.test.ts'],
           globalSetup: ['tests/integration/helpers/global-setup.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,
