@@ -187,13 +187,7 @@ for (const vp of VIEWPORTS) {
           async () => {
             await ed.page.goto(`/scenes/${d.briefing.id}`);
             await settle(ed.page);
-            const present = ed.page.getByRole('button', { name: 'Present', exact: true });
-            if (!(await present.isVisible())) {
-              const drawer = ed.page.getByTestId('drawer-toggle');
-              if ((await drawer.count()) && (await drawer.isVisible())) await drawer.click();
-              await ed.page.getByRole('tab', { name: /Steps/ }).click();
-            }
-            await present.click();
+            await ed.page.getByRole('button', { name: /Start presenting/ }).first().click();
             await ed.page.locator('[data-testid="stage-caption"], [data-testid="presenter"]').first().waitFor({ timeout: 20_000 });
             await ed.page.mouse.move(vp.width / 2, vp.height / 3);
           },

@@ -200,7 +200,8 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
         </text>
       </g>
       <g clipPath={`url(#${id}-clip)`} fill="none" strokeLinejoin="round" strokeLinecap="round">
-        <g data-part="moon" aria-label={moonLabel}>
+        <g data-part="moon">
+          <title>{moonLabel}</title>
           {prepared.moon.map((r, i) => (
             <path key={i} d={path(r.points) ?? ''} stroke={moonInk} strokeWidth={1.6} strokeDasharray="1 5" opacity={0.9} />
           ))}
