@@ -53,7 +53,7 @@ function watch(context: BrowserContext): Watch {
 }
 
 async function context(browser: Browser, vp: (typeof VIEWPORTS)[number], user?: string): Promise<{ ctx: BrowserContext; page: Page; w: Watch }> {
-  const ctx = await browser.newContext({ baseURL: world.url, viewport: { width: vp.width, height: vp.height }, colorScheme: 'dark', deviceScaleFactor: 1, isMobile: vp.name === 'phone', hasTouch: vp.name === 'phone' });
+  const ctx = await browser.newContext({ baseURL: world.url, viewport: { width: vp.width, height: vp.height }, colorScheme: 'dark', reducedMotion: 'reduce', deviceScaleFactor: 1, isMobile: vp.name === 'phone', hasTouch: vp.name === 'phone' });
   if (user) {
     const r = await ctx.request.post('/api/auth/sign-in', { data: { email: user, password: DEMO.password } });
     expect(r.status()).toBe(200);

@@ -47,6 +47,7 @@ interface Target {
 /** Routes that read no body: nothing to fuzz. */
 const NO_BODY: Record<string, string> = {
   'POST /api/auth/sign-out': 'reads no body (ends the session)',
+  'POST /api/auth/verify-email': 'reads no body (mails the signed-in user a new confirmation link)',
   'POST /api/invitations/[token]/accept': 'reads no body (the token is in the path)',
   'POST /api/shared/[token]/links': 'reads no body (always 403 or 404)',
   'POST /api/teams/[teamId]/calendar-feed': 'reads no body (makes a new secret URL)',

@@ -73,7 +73,7 @@ export function Stage({ sky, step, index, count, time, timeZone, controls, statu
           </p>
           {status}
           <div
-            className={`flex gap-2 transition-opacity duration-500 focus-within:opacity-100 ${idle ? 'opacity-0' : 'opacity-100'}`}
+            className={`flex gap-2 transition-opacity duration-500 motion-reduce:transition-none focus-within:opacity-100 ${idle ? 'opacity-0' : 'opacity-100'}`}
             data-testid="stage-controls"
             data-idle={idle ? 'true' : 'false'}
           >
