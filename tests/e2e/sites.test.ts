@@ -69,6 +69,8 @@ browserTest('an editor creates a scene by searching a town', async () => {
 
   await page.getByRole('button', { name: 'Use this site' }).click();
   await page.getByText('Site set: La Serena').waitFor();
+  // The title typed at the start can be lost if it was typed before the form hydrated: type it again.
+  await page.getByLabel(/^Title/).fill('Night over La Serena');
   await screenshot(page, 'sites-new-scene-1440x900');
   await page.getByRole('button', { name: 'Create scene' }).click();
   await page.waitForURL((u) => /^\/scenes\/(?!new$)[^/]+$/.test(u.pathname), { timeout: 30_000 });
