@@ -3,40 +3,9 @@ import { defineConfig, envField } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
-import { copyFileSync, existsSync, renameSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { precompressDir } from './scripts/precompress.mjs';
+import { armillaServer } from './src/lib/server/runtime/integration.mjs';
 import { computeWorker } from './src/lib/server/compute/build.mjs';
-
-/**
- * Our own HTTP server around Astro (see scripts/server-entry.mjs): after a build, Astro's entry becomes
- * dist/server/app.mjs and ours takes dist/server/entry.mjs.
- */
-/** @returns {import('astro').AstroIntegration} */
-function armillaServer() {
-  /** @type {URL | undefined} */
-  let outDir;
-  return {
-    name: 'armilla-server',
-    hooks: {
-      'astro:config:done': ({ config }) => {
-        outDir = config.outDir;
-      },
-      'astro:build:done': () => {
-        if (!outDir) throw new Error('armilla-server: no outDir');
-        const entry = fileURLToPath(new URL('server/entry.mjs', outDir));
-        const app = fileURLToPath(new URL('server/app.mjs', outDir));
-        if (!existsSync(entry)) throw new Error(`armilla-server: no ${entry}`);
-        renameSync(entry, app);
-        copyFileSync(fileURLToPath(new URL('./scripts/server-entry.mjs', import.meta.url)), entry);
-        const made = precompressDir(fileURLToPath(new URL('client/', outDir)));
-        /** @param {'raw' | 'br' | 'gz'} k */
-        const sum = (k) => made.reduce((a, f) => a + f[k], 0);
-        console.log(`armilla-server: precompressed ${made.length} files, ${sum('raw')} B → br ${sum('br')} B, gzip ${sum('gz')} B`);
-      },
-    },
-  };
-}
 
 /**
  * The sky view in the browser computes planets from a lighter cut of the VSOP87B series
