@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import type { APIContext } from 'astro';
 import { defineMiddleware } from 'astro:middleware';
 import { readSession } from './lib/server/auth';
-import { authenticateBearer, bearerOf, scopeAllows, sessionOnly } from './lib/server/auth/tokens';
+import { authenticateBearer, bearerOf, scopeAllows, tokenReachable } from './lib/server/auth/tokens';
 import { clientAddress, errorResponse, HttpError } from './lib/server/http';
 import { resolveOriginParts, trustFromEnv } from './lib/server/proxy';
 
@@ -130,7 +130,7 @@ async function tokenRequest(ctx: APIContext, bearer: string): Promise<Response |
   try {
     const { pathname } = ctx.url;
     const auth = await authenticateBearer(bearer, clientAddress(ctx));
-    if (sessionOnly(pathname)) {
+    if (!tokenReachable(pathname)) {
       throw new HttpError(403, 'session_required', 'Tokens and passwords are managed from a signed-in browser session, not with a token.');
     }
     if (!scopeAllows(auth.token.scope, ctx.request.method, pathname)) {
