@@ -3,40 +3,19 @@ import { defineConfig, envField } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
-import { copyFileSync, existsSync, renameSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { precompressDir } from './scripts/precompress.mjs';
+import { armillaServer } from './src/lib/server/runtime/integration.mjs';
 import { computeWorker } from './src/lib/server/compute/build.mjs';
+import { createHash } from 'node:crypto';
+import { NIGHT_MODE_SCRIPT } from './src/components/ui/night-mode-script.ts';
 
 /**
- * Our own HTTP server around Astro (see scripts/server-entry.mjs): after a build, Astro's entry becomes
- * dist/server/app.mjs and ours takes dist/server/entry.mjs.
+ * Our own `is:inline` scripts, allowed by the CSP through their SHA-256 (Astro hashes the scripts it
+ * writes itself: island bootstrap, directives, inlined page scripts). See src/lib/server/README.md, "Content-Security-Policy".
  */
-/** @returns {import('astro').AstroIntegration} */
-function armillaServer() {
-  /** @type {URL | undefined} */
-  let outDir;
-  return {
-    name: 'armilla-server',
-    hooks: {
-      'astro:config:done': ({ config }) => {
-        outDir = config.outDir;
-      },
-      'astro:build:done': () => {
-        if (!outDir) throw new Error('armilla-server: no outDir');
-        const entry = fileURLToPath(new URL('server/entry.mjs', outDir));
-        const app = fileURLToPath(new URL('server/app.mjs', outDir));
-        if (!existsSync(entry)) throw new Error(`armilla-server: no ${entry}`);
-        renameSync(entry, app);
-        copyFileSync(fileURLToPath(new URL('./scripts/server-entry.mjs', import.meta.url)), entry);
-        const made = precompressDir(fileURLToPath(new URL('client/', outDir)));
-        /** @param {'raw' | 'br' | 'gz'} k */
-        const sum = (k) => made.reduce((a, f) => a + f[k], 0);
-        console.log(`armilla-server: precompressed ${made.length} files, ${sum('raw')} B → br ${sum('br')} B, gzip ${sum('gz')} B`);
-      },
-    },
-  };
-}
+const OWN_INLINE_SCRIPTS = [NIGHT_MODE_SCRIPT];
+/** @param {string} text */
+const sha256 = (text) => /** @type {`sha256-${string}`} */ (`sha256-${createHash('sha256').update(text, 'utf8').digest('base64')}`);
 
 /**
  * The sky view in the browser computes planets from a lighter cut of the VSOP87B series
@@ -63,6 +42,9 @@ export default defineConfig({
   integrations: [react(), armillaServer(), computeWorker()],
   // Astro's checkOrigin covers form posts only; src/middleware.ts checks every non-GET itself.
   security: { checkOrigin: false },
+  // Astro computes the hashes of the inline scripts our build produces and sets them on each page it
+  // renders; src/middleware.ts builds the whole policy from their script part (src/lib/server/README.md, "Content-Security-Policy").
+  experimental: { csp: { algorithm: 'SHA-256', scriptDirective: { hashes: OWN_INLINE_SCRIPTS.map(sha256) } } },
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
   env: {
     schema: {

@@ -120,6 +120,8 @@ try {
         const page = await context.newPage();
         await context.request.post('/api/auth/sign-in', { data: { email: DEMO.editor, password: DEMO.password } });
         await page.goto(`/scenes/${id}`);
+        // The night charts sit in the workspace's bottom sheet, closed until asked for.
+        await page.getByTestId('sheet-toggle').click();
         await page.locator('[data-testid=altitude-chart] g.night-curve').first().waitFor({ timeout: 120_000 });
         // redraws: highlight each of the first 12 rows (each hover re-renders the chart with 50 curves)
         const rows = page.locator('[data-testid=night-figures] tbody tr');

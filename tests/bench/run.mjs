@@ -9,11 +9,11 @@ import { join } from 'node:path';
 const dir = 'tests/bench';
 const filter = process.argv.slice(2);
 const scripts = readdirSync(dir)
-  .filter((f) => /\.(mjs|ts)$/.test(f) && f !== 'run.mjs' && !f.startsWith('_'))
+  .filter((f) => /\.(mjs|ts)$/.test(f) && f !== 'run.mjs' && f !== 'load.ts' && !f.startsWith('_'))
   .filter((f) => !filter.length || filter.some((p) => f.includes(p)))
   .sort();
 
-if (!existsSync('dist/server/entry.mjs') || process.env.BENCH_BUILD === '1') {
+if (!existsSync('dist/server/armilla.mjs') || process.env.BENCH_BUILD === '1') {
   const b = spawnSync('npx', ['astro', 'build'], { stdio: 'inherit' });
   if (b.status !== 0) process.exit(1);
 }

@@ -36,7 +36,7 @@ const SIZES = (process.env.ARMILLA_BENCH_SIZES ?? '1280x720,1440x900,1920x1080')
 });
 
 const dist = resolve(process.env.ARMILLA_BENCH_DIST ?? 'dist');
-if (!existsSync(join(dist, 'server/entry.mjs'))) {
+if (!existsSync(join(dist, 'server/armilla.mjs'))) {
   console.log('building the app…');
   execSync('npx astro build', { stdio: 'inherit' });
 }
@@ -54,7 +54,7 @@ const freePort = () =>
 const port = await freePort();
 const dir = mkdtempSync(join(tmpdir(), 'armilla-bench-view-'));
 const url = `http://127.0.0.1:${port}`;
-const server = spawn(process.execPath, [join(dist, 'server/entry.mjs')], {
+const server = spawn(process.execPath, [join(dist, 'server/armilla.mjs')], {
   env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: `file:${join(dir, 'bench.db')}`, PUBLIC_ORIGIN: url },
   stdio: 'ignore',
 });

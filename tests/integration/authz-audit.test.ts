@@ -224,6 +224,7 @@ const currentVersion = async () => ok(await editor().get(`/api/scenes/${fx.scene
 
 const TABLE: Record<string, Entry> = {
   'GET /api/health': { expect: ALL(200) },
+  'GET /api/openapi.json': { expect: ALL(200) },
 
   // accounts
   'POST /api/auth/sign-up': {

@@ -99,7 +99,7 @@ describe('npm run backup', () => {
     const w = await editor.post('/api/scenes', sceneBody(teamId, 'Written just before the backup'));
     expect(w.status).toBe(201);
     const target = join(s.dir, 'backup-copy.db');
-    const out = execFileSync(resolve('node_modules/.bin/tsx'), ['scripts/backup.ts', target], {
+    const out = execFileSync(resolve('node_modules/.bin/tsx'), ['src/lib/server/db/backup.ts', target], {
       env: { ...process.env, DATABASE_URL: s.dbUrl },
       encoding: 'utf8',
     });

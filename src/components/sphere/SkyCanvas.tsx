@@ -442,13 +442,32 @@ function softwareRenderer(): boolean {
 /**
  * On a software rasteriser every pixel costs CPU time: render the canvas at a reduced resolution and let
  * the browser scale it up (lines stay sharp enough; labels are drawn by the overlay at full resolution).
- * `?dpr=` in the page URL overrides.
+ * The ratio is at most 0.5 and shrinks so that the drawing buffer stays within a fixed pixel budget:
+ * measured on the 2-core bench machine (2026-12-03, quiet), SwiftShader's GPU process spends about 28 ms a
+ * frame whatever the size plus about 90 ms per million drawn pixels, so a 1902×958 canvas at 0.5 (0.46 Mpx)
+ * ran at 19–25 fps where the 1440×900 layout (0.28 Mpx) ran at 30–38. With the budget, a larger window
+ * costs what the 1440×900 one does and draws slightly softer lines. `?dpr=` in the page URL overrides.
  */
-function softwareDpr(): number {
+function softwareDpr(width: number, height: number): number {
   const q = Number(new URLSearchParams(location.search).get('dpr'));
-  return Number.isFinite(q) && q > 0 && q <= 2 ? q : SOFTWARE_DPR;
+  if (Number.isFinite(q) && q > 0 && q <= 2) return q;
+  const px = Math.max(1, width * height);
+  return Math.min(SOFTWARE_DPR, Math.max(0.25, Math.sqrt(SOFTWARE_PIXEL_BUDGET / px)));
 }
 const SOFTWARE_DPR = 0.5;
+/** Drawing-buffer pixels on a software rasteriser: the 1440×900 layout's canvas (1422×778) at 0.5. */
+const SOFTWARE_PIXEL_BUDGET = 280_000;
+
+/** Keeps a software rasteriser's drawing buffer within SOFTWARE_PIXEL_BUDGET as the canvas is resized. */
+function SoftwareResolution() {
+  const width = useThree((s) => s.size.width);
+  const height = useThree((s) => s.size.height);
+  const setDpr = useThree((s) => s.setDpr);
+  useEffect(() => {
+    setDpr(softwareDpr(width, height));
+  }, [width, height, setDpr]);
+  return null;
+}
 
 export default function SkyCanvas({ handles, onPickPoint }: SkyCanvasProps) {
   const invalidateRef = useRef<(() => void) | null>(null);
@@ -461,7 +480,7 @@ export default function SkyCanvas({ handles, onPickPoint }: SkyCanvasProps) {
   return (
     <Canvas
       frameloop="demand"
-      dpr={softwareRenderer() ? softwareDpr() : [1, 2]}
+      dpr={softwareRenderer() ? softwareDpr(window.innerWidth, window.innerHeight) : [1, 2]}
       gl={{ antialias: !softwareRenderer() && wantAntialias(), alpha: false, preserveDrawingBuffer: false }}
       camera={{ fov: handles.cam.fov, near: 0.1, far: 2000, position: [0, 0, 0] }}
       onCreated={(s) => {
@@ -477,6 +496,7 @@ export default function SkyCanvas({ handles, onPickPoint }: SkyCanvasProps) {
       style={{ position: 'absolute', inset: 0, touchAction: 'none' }}
     >
       <ViewContext.Provider value={handles}>
+        {softwareRenderer() && <SoftwareResolution />}
         <CameraRig />
         <Player />
         <Interaction onPickPoint={onPickPoint} />

@@ -1,8 +1,8 @@
 /**
  * The sky background of the Observer view: a sphere around the observer painted per vertex from the Sun's
  * altitude and direction (sky-colour.ts), recoloured only when the Sun has moved. It fades out as the
- * camera leaves for the Sphere view. One opaque draw with no blending while fully shown (cheap on a
- * software rasteriser). `?sky=flat` in the page URL leaves it out (the benchmark's before/after).
+ * camera leaves for the Sphere view. One opaque draw with no blending while fully shown, colours in sRGB
+ * with no per-pixel conversion (FlatFillMaterial: cheap on a software rasteriser). `?sky=flat` in the page URL leaves it out (the benchmark's before/after).
  */
 import { useFrame } from '@react-three/fiber';
 import { useEffect, useMemo } from 'react';
@@ -10,8 +10,8 @@ import * as THREE from 'three';
 import { useView } from './context';
 import { SPHERE_RADIUS, worldToEnu } from './geometry';
 import { skyColourAt, skyGradient } from './sky-colour';
+import { FlatFillMaterial } from './materials';
 
-const toLinear = (c: number) => (c <= 0.04045 ? c / 12.92 : Math.pow((c + 0.055) / 1.055, 2.4));
 const RAD = 180 / Math.PI;
 
 export function SkyDome() {
@@ -36,7 +36,7 @@ export function SkyDome() {
       alt[i] = Math.asin(Math.max(-1, Math.min(1, enu[i * 3 + 2]!))) * RAD;
     }
     geom.setAttribute('color', new THREE.BufferAttribute(new Float32Array(n * 3), 3));
-    const mat = new THREE.MeshBasicMaterial({ vertexColors: true, side: THREE.BackSide, depthWrite: false, depthTest: false });
+    const mat = new FlatFillMaterial({ vertexColors: true, side: THREE.BackSide, depthWrite: false, depthTest: false });
     const mesh = new THREE.Mesh(geom, mat);
     mesh.renderOrder = -10;
     mesh.frustumCulled = false;
@@ -56,7 +56,7 @@ export function SkyDome() {
       return;
     }
     const t = cam.t;
-    const mat = objs.mesh.material as THREE.MeshBasicMaterial;
+    const mat = objs.mesh.material as FlatFillMaterial;
     objs.mesh.visible = t < 0.999;
     mat.opacity = 1 - t;
     if (mat.transparent !== t > 0) {
@@ -75,10 +75,8 @@ export function SkyDome() {
     const s = sun.enu, enu = objs.enu;
     for (let i = 0; i < objs.n; i++) {
       const dot = enu[i * 3]! * s[0] + enu[i * 3 + 1]! * s[1] + enu[i * 3 + 2]! * s[2];
+      // sRGB, written as it is (FlatFillMaterial: no per-pixel conversion).
       skyColourAt(arr, g, objs.alt[i]!, Math.acos(Math.max(-1, Math.min(1, dot))) * RAD, i * 3);
-      arr[i * 3] = toLinear(arr[i * 3]!);
-      arr[i * 3 + 1] = toLinear(arr[i * 3 + 1]!);
-      arr[i * 3 + 2] = toLinear(arr[i * 3 + 2]!);
     }
     col.needsUpdate = true;
   });

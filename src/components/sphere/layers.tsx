@@ -9,7 +9,7 @@ import type { LineMaterial } from 'three/examples/jsm/lines/LineMaterial.js';
 import { useView } from './context';
 import * as engine from './sky-adapter';
 import { altAzToEnu, buildGrid, enuListToWorld, enuToWorld, envelopeShell, envelopeTintFace, SPHERE_RADIUS, tintIndices, starSizePx, starTint, unitFromLonLat } from './geometry';
-import { bodyMaterial, patternLineMaterial, starMaterial } from './materials';
+import { bodyMaterial, FlatFillMaterial, patternLineMaterial, srgbOf, starMaterial } from './materials';
 import { RING_SEGMENTS } from './model';
 import { CIRCLE_STYLES, COLORS, GRID_STYLES, type CircleKey } from './styles';
 import { PLAN_LINES, PLANET_TINTS } from '../../lib/style/palette';
@@ -296,12 +296,12 @@ export function Ground({ show }: { show: boolean }) {
   const objs = useMemo(() => {
     const hemi = new THREE.Mesh(
       new THREE.SphereGeometry(R * 0.97, 64, 24, 0, Math.PI * 2, Math.PI / 2, Math.PI / 2),
-      new THREE.MeshBasicMaterial({ color: COLORS.groundObserver, side: THREE.BackSide, transparent: true, depthWrite: true }),
+      new FlatFillMaterial({ color: COLORS.groundObserver, side: THREE.BackSide, transparent: true, depthWrite: true }),
     );
     hemi.renderOrder = 5;
     const disc = new THREE.Mesh(
       new THREE.CircleGeometry(R, 128).rotateX(-Math.PI / 2),
-      new THREE.MeshBasicMaterial({ color: COLORS.groundSphere, side: THREE.DoubleSide, transparent: true, opacity: 0.35, depthWrite: false, forceSinglePass: true }),
+      new FlatFillMaterial({ color: COLORS.groundSphere, side: THREE.DoubleSide, transparent: true, opacity: 0.35, depthWrite: false, forceSinglePass: true }),
     );
     disc.renderOrder = 0;
     const observer = new THREE.Group();
@@ -318,7 +318,7 @@ export function Ground({ show }: { show: boolean }) {
   }, [objs]);
   useFrame(() => {
     const t = cam.t;
-    const hm = objs.hemi.material as THREE.MeshBasicMaterial;
+    const hm = objs.hemi.material as FlatFillMaterial;
     hm.opacity = 1 - t;
     // Opaque while it is fully opaque: blending costs every pixel of half the screen on a software rasteriser.
     if (hm.transparent !== t > 0) {
@@ -327,7 +327,7 @@ export function Ground({ show }: { show: boolean }) {
     }
     objs.hemi.visible = show && t < 0.999;
     hm.depthWrite = t < 0.5;
-    (objs.disc.material as THREE.MeshBasicMaterial).opacity = 0.35 * t;
+    (objs.disc.material as FlatFillMaterial).opacity = 0.35 * t;
     objs.disc.visible = show && t > 0.001;
     objs.observer.visible = t > 0.05;
     objs.observer.scale.setScalar(Math.max(0.001, t));
@@ -394,7 +394,7 @@ export function Envelope() {
     geom.setAttribute('position', new THREE.BufferAttribute(shell.positions, 3));
     geom.setAttribute('color', new THREE.BufferAttribute(new Float32Array(n * 4), 4));
     geom.setIndex(new THREE.BufferAttribute(shell.indices, 1));
-    const mesh = new THREE.Mesh(geom, new THREE.MeshBasicMaterial({ vertexColors: true, transparent: true, side: THREE.FrontSide, depthWrite: false }));
+    const mesh = new THREE.Mesh(geom, new FlatFillMaterial({ vertexColors: true, transparent: true, side: THREE.FrontSide, depthWrite: false }));
     mesh.frustumCulled = false;
     mesh.renderOrder = 1;
     const maskLine = new PolyLine(patternLineMaterial(COLORS.maskEdge, 2.2, []), 361, true);
@@ -402,7 +402,7 @@ export function Envelope() {
       new THREE.BufferGeometry().setAttribute('position', new THREE.BufferAttribute(new Float32Array(361 * 2 * 3), 3)).setIndex(
         Array.from({ length: 360 }, (_, i) => [i * 2, i * 2 + 1, i * 2 + 2, i * 2 + 1, i * 2 + 3, i * 2 + 2]).flat(),
       ),
-      new THREE.MeshBasicMaterial({ color: COLORS.mask, side: THREE.DoubleSide, transparent: true, opacity: 0.85, forceSinglePass: true }),
+      new FlatFillMaterial({ color: COLORS.mask, side: THREE.DoubleSide, transparent: true, opacity: 0.85, forceSinglePass: true }),
     );
     maskBand.frustumCulled = false;
     maskBand.renderOrder = 6;
@@ -423,10 +423,10 @@ export function Envelope() {
   const { cam } = useView();
   useFrame(({ size, camera }) => {
     // The blocked band reads as landscape in the Observer view; from outside it must not hide the sphere.
-    (objs.maskBand.material as THREE.MeshBasicMaterial).opacity = 0.85 - 0.6 * cam.t;
+    (objs.maskBand.material as FlatFillMaterial).opacity = 0.85 - 0.6 * cam.t;
     // Tint one side only: the inner face from the observer's place, the near (outer) face from outside.
     // Half the fragments of a double-sided shell, which is what a software rasteriser pays for.
-    const tintMat = objs.mesh.material as THREE.MeshBasicMaterial;
+    const tintMat = objs.mesh.material as FlatFillMaterial;
     const side = envelopeTintFace(camera.position.length(), R * 0.99) === 'inner' ? THREE.FrontSide : THREE.BackSide;
     if (tintMat.side !== side) {
       tintMat.side = side;
@@ -452,7 +452,7 @@ export function Envelope() {
     const hd = { haHours: 0, decDeg: 0 };
     const col = objs.mesh.geometry.attributes.color as THREE.BufferAttribute;
     const arr = col.array as Float32Array;
-    const c = new THREE.Color(COLORS.forbidden);
+    const c = srgbOf(COLORS.forbidden);
     const v = [0, 0, 0];
     for (let b = 0; b <= NB; b++) {
       for (let a = 0; a <= NA; a++) {

@@ -109,3 +109,72 @@ export function bodyMaterial(): THREE.ShaderMaterial {
     depthWrite: false,
   });
 }
+
+export interface FlatFillOptions {
+  /** Uniform colour (CSS/hex, sRGB); multiplied by the vertex colour when `vertexColors` is set. */
+  color?: string;
+  vertexColors?: boolean;
+  opacity?: number;
+  transparent?: boolean;
+  side?: THREE.Side;
+  depthWrite?: boolean;
+  depthTest?: boolean;
+  forceSinglePass?: boolean;
+}
+
+/**
+ * A flat fill for the large surfaces of the view (sky dome, ground, envelope tint, horizon-mask band): the
+ * colour, uniform or per vertex (RGB or RGBA), is given in sRGB and written as it is. three's
+ * MeshBasicMaterial instead takes linear colours and converts every pixel back to sRGB with a `pow()`; on a
+ * software rasteriser (SwiftShader, no GPU) that per-pixel conversion over a fill as large as the screen was
+ * most of the sky dome's cost (measured, src/components/sphere/README.md). Blending works on the sRGB values
+ * in the framebuffer either way, so a uniform colour gives the same pixels; a per-vertex gradient is
+ * interpolated in sRGB, as a CSS gradient is.
+ */
+export class FlatFillMaterial extends THREE.ShaderMaterial {
+  constructor(o: FlatFillOptions = {}) {
+    const c = new THREE.Color(o.color ?? '#ffffff');
+    const srgb = { r: 1, g: 1, b: 1 };
+    c.getRGB(srgb, THREE.SRGBColorSpace);
+    super({
+      uniforms: { uColor: { value: new THREE.Vector3(srgb.r, srgb.g, srgb.b) }, uOpacity: { value: o.opacity ?? 1 } },
+      vertexShader: /* glsl */ `
+        uniform vec3 uColor;
+        uniform float uOpacity;
+        varying vec4 vFill;
+        void main() {
+          #if defined( USE_COLOR_ALPHA )
+            vFill = vec4(uColor * color.rgb, color.a * uOpacity);
+          #elif defined( USE_COLOR )
+            vFill = vec4(uColor * color, uOpacity);
+          #else
+            vFill = vec4(uColor, uOpacity);
+          #endif
+          gl_Position = projectionMatrix * modelViewMatrix * vec4(position, 1.0);
+        }`,
+      fragmentShader: /* glsl */ `
+        varying vec4 vFill;
+        void main() { gl_FragColor = vFill; }`,
+      vertexColors: o.vertexColors ?? false,
+      transparent: o.transparent ?? false,
+      side: o.side ?? THREE.FrontSide,
+      depthWrite: o.depthWrite ?? true,
+      depthTest: o.depthTest ?? true,
+      forceSinglePass: o.forceSinglePass ?? false,
+    });
+  }
+  // Material's own `opacity` is not a uniform of a ShaderMaterial: keep the two as one.
+  override get opacity(): number {
+    return (this.uniforms?.uOpacity?.value as number | undefined) ?? 1;
+  }
+  override set opacity(v: number) {
+    if (this.uniforms?.uOpacity) this.uniforms.uOpacity.value = v;
+  }
+}
+
+/** A colour's sRGB components (0–1), as FlatFillMaterial's vertex colours want them. */
+export function srgbOf(color: string): { r: number; g: number; b: number } {
+  const out = { r: 0, g: 0, b: 0 };
+  new THREE.Color(color).getRGB(out, THREE.SRGBColorSpace);
+  return out;
+}

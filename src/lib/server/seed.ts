@@ -1,7 +1,7 @@
 /**
  * The demo world that `npm start` creates on an empty database (API contract, "Demo accounts").
  * All people, teams and addresses are invented; addresses use the reserved `.example` domain.
- * Runs outside Astro (scripts/start.ts, the test harness), so it imports no astro:* module.
+ * Runs outside Astro (runtime/start.ts, the test harness), so it imports no astro:* module.
  */
 import { sql } from 'drizzle-orm';
 import { nanoid } from 'nanoid';

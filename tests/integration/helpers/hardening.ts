@@ -1,5 +1,5 @@
 /**
- * Shared by the hardening tests (authz audit, property, durability, scale-out) and scripts/load.ts:
+ * Shared by the hardening tests (authz audit, property, durability, scale-out) and tests/bench/load.ts:
  * signing in the demo cast, reading the database for a checksum, a small concurrency pool.
  */
 import { createHash } from 'node:crypto';

@@ -56,7 +56,7 @@ async function waitHealthy(url: string, proc: ChildProcess, log: () => string): 
   throw new Error(`server did not start:\n${log()}`);
 }
 
-/** Starts the built app (dist/server/entry.mjs) on a free port with its own temp-file SQLite database. */
+/** Starts the built app (dist/server/armilla.mjs) on a free port with its own temp-file SQLite database. */
 export async function startServer(opts: StartOptions = {}): Promise<TestServer> {
   const dir = mkdtempSync(join(tmpdir(), 'armilla-test-'));
   const dbUrl = opts.dbUrl ?? `file:${join(dir, 'test.db')}`;
@@ -73,7 +73,7 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
   const url = `http://127.0.0.1:${port}`;
   let out = '';
   const launch = () => {
-    const proc = spawn(process.execPath, [resolve(process.env.ARMILLA_DIST ?? 'dist', 'server/entry.mjs')], {
+    const proc = spawn(process.execPath, [resolve(process.env.ARMILLA_DIST ?? 'dist', 'server/armilla.mjs')], {
       env: {
         ...process.env,
         HOST: '127.0.0.1',

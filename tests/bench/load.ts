@@ -13,8 +13,8 @@ import { createRequire } from 'node:module';
 import { existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
 import { cpus, totalmem } from 'node:os';
 import { join } from 'node:path';
-import { startServer } from '../tests/integration/helpers/server';
-import { ApiClient, DEMO } from '../tests/integration/helpers/client';
+import { startServer } from '../integration/helpers/server';
+import { ApiClient, DEMO } from '../integration/helpers/client';
 
 interface CannonResult {
   requests: { average: number; total: number };
@@ -149,7 +149,7 @@ async function editorsPhase(base: string, seconds: number): Promise<PhaseResult>
 
 export async function runLoad(): Promise<Record<string, unknown>> {
   const dist = process.env.ARMILLA_DIST ?? 'dist';
-  if (!existsSync(`${dist}/server/entry.mjs`)) throw new Error('no build: run `npx astro build` first');
+  if (!existsSync(`${dist}/server/armilla.mjs`)) throw new Error('no build: run `npx astro build` first');
   const css = readdirSync(`${dist}/client/_astro`).find((f) => f.endsWith('.css'));
   if (!css) throw new Error('no /_astro/*.css in dist/client');
   const staticPath = `/_astro/${css}`;
@@ -211,7 +211,7 @@ export async function runLoad(): Promise<Record<string, unknown>> {
   }
 }
 
-const isMain = process.argv[1] && /scripts[\\/]load\.ts$/.test(process.argv[1]);
+const isMain = process.argv[1] && /bench[\\/]load\.ts$/.test(process.argv[1]);
 if (isMain) {
   runLoad().catch((e) => {
     console.error(e);

@@ -1,8 +1,8 @@
 /**
- * Build step (run by the armilla-server integration after `astro build`): next to every compressible
+ * Build step (run by the armilla-server integration, ./integration.mjs, after `astro build`): next to every compressible
  * file of dist/client of at least 1 kB it writes `<file>.br` (brotli, quality 11) and `<file>.gz` (gzip,
  * level 9), each kept only when it saves at least 5 %. The HTTP server picks one of them by the request's
- * Accept-Encoding (see server-entry.mjs), so assets are compressed once, at the highest setting, and never
+ * Accept-Encoding (see http-server.mjs), so assets are compressed once, at the highest setting, and never
  * per request. Fonts (woff/woff2) and images are compressed formats already and are left alone.
  */
 import { readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';

@@ -6,9 +6,9 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { z } from 'zod';
-import { openDb, DEFAULT_DATABASE_URL } from '../src/lib/server/db/client';
-import { migrateDb } from '../src/lib/server/db/migrate';
-import { seedDemo } from '../src/lib/server/seed';
+import { openDb, DEFAULT_DATABASE_URL } from '../db/client';
+import { migrateDb } from '../db/migrate';
+import { seedDemo } from '../seed';
 
 const env = z
   .object({
@@ -32,7 +32,8 @@ function newest(dir: string): number {
   return t;
 }
 
-const entry = 'dist/server/entry.mjs';
+// the server the build writes (./integration.mjs); paths are relative to the repository root, where npm runs
+const entry = 'dist/server/armilla.mjs';
 const stale =
   !existsSync(entry) ||
   Math.max(newest('src'), newest('public'), statSync('astro.config.mjs').mtimeMs) > statSync(entry).mtimeMs;

@@ -1,13 +1,14 @@
 /**
- * Armilla's HTTP server. The `armilla-server` integration in astro.config.mjs copies this file over
- * dist/server/entry.mjs after every build (Astro's own entry becomes dist/server/app.mjs), so
- * `node dist/server/entry.mjs` starts it, as before.
+ * Armilla's HTTP server. The `armilla-server` integration (./integration.mjs) writes this file beside
+ * Astro's own entry as dist/server/armilla.mjs after every build; `node dist/server/armilla.mjs` starts
+ * it. Astro's dist/server/entry.mjs stays as Astro wrote it: this file imports its `handler` (the
+ * adapter runs in middleware mode).
  *
  * Why our own server instead of @astrojs/node's standalone one: the standalone server looks every
  * request up on disk before rendering it (a synchronous lstat that throws, then an asynchronous stat),
  * which cost 6–9 % of the server's CPU on the API's hot paths. Here the files of dist/client are listed
  * once at start-up; a GET or HEAD for one of them is sent from disk, everything else goes straight to
- * Astro (the adapter in middleware mode). Environment: HOST (default 127.0.0.1), PORT (default 4321).
+ * Astro. Environment: HOST (default 127.0.0.1), PORT (default 4321).
  */
 import http from 'node:http';
 import { readdirSync } from 'node:fs';
@@ -17,7 +18,12 @@ import compression from 'compression';
 import { contentType } from 'mime-types';
 import Negotiator from 'negotiator';
 import send from 'send';
-import { handler } from './app.mjs';
+
+/**
+ * Astro's request handler, from the entry the build wrote beside this file. Imported by URL so that
+ * the source tree (where no entry.mjs exists) has no import it cannot resolve.
+ */
+const { handler } = await import(new URL('./entry.mjs', import.meta.url).href);
 
 const clientDir = fileURLToPath(new URL('../client/', import.meta.url));
 
@@ -33,7 +39,7 @@ function listFiles(dir, prefix, out) {
 const files = listFiles(clientDir, '/', new Set());
 
 /**
- * Compressed variants made at build time (scripts/precompress.mjs): path → the encodings on disk, best
+ * Compressed variants made at build time (./precompress.mjs): path → the encodings on disk, best
  * first. The variant is chosen by Accept-Encoding (q-values honoured; br preferred over gzip) and the
  * answer carries `Vary: Accept-Encoding`, so a cache keeps each form apart.
  */
