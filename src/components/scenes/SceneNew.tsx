@@ -1,6 +1,6 @@
 /** /scenes/new: a blank scene, one from a team site, or a copy of an existing scene. */
 import { useScenes, useSites } from '../../lib/client/queries';
-import { useId, useState } from 'react';
+import { useEffect, useId, useRef, useState } from 'react';
 import { useMutation } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
@@ -24,6 +24,13 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
   const [teamId, setTeamId] = useState(initialTeamId ?? teams[0]?.id ?? '');
   const [mode, setMode] = useState<Mode>(fromSceneId ? 'copy' : 'blank');
   const [title, setTitle] = useState('');
+  const titleRef = useRef<HTMLInputElement>(null);
+  // A title typed into the server-rendered field before this island hydrated is in the DOM but not in
+  // the state: take it over once, rather than let the next render blank it.
+  useEffect(() => {
+    const typed = titleRef.current?.value;
+    if (typed) setTitle((t) => t || typed);
+  }, []);
   const [time, setTime] = useState(() => new Date(Math.round(Date.now() / 3.6e6) * 3.6e6).toISOString().slice(0, 16));
   const [site, setSite] = useState<Site | null>(null);
   const [siteId, setSiteId] = useState('');
@@ -101,7 +108,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
         <label htmlFor={`${id}-title`} className={LABEL}>
           Title{mode === 'copy' ? ' (optional: defaults to the copied title)' : ''}
         </label>
-        <input id={`${id}-title`} name="title" className={INPUT} value={title} maxLength={200} onChange={(e) => setTitle(e.target.value)} />
+        <input ref={titleRef} id={`${id}-title`} name="title" className={INPUT} value={title} maxLength={200} onChange={(e) => setTitle(e.target.value)} />
       </div>
       {mode !== 'copy' && (
         <div className="flex flex-col gap-1">
