@@ -44,6 +44,9 @@ function documentedOperations(doc: any): Set<string> {
   return out;
 }
 
+/** A schema with its `$ref` into components followed. */
+const deref = (schema: any): any => (schema?.$ref ? deref(doc.components.schemas[schema.$ref.replace('#/components/schemas/', '')]) : schema);
+
 const minus = (a: Set<string>, b: Set<string>) => [...a].filter((x) => !b.has(x)).sort();
 
 let s: TestServer;
@@ -148,9 +151,12 @@ describe('GET /api/openapi.json', () => {
     const night = doc.paths['/api/scenes/{id}/night'].get;
     const params = night.parameters.map((p: { in: string; name: string }) => `${p.in}:${p.name}`);
     expect(params).toEqual(expect.arrayContaining(['path:id', 'query:from', 'query:to', 'query:step', 'query:bodies']));
-    const answer = night.responses['200'].content['application/json'].schema;
+    const answer = deref(night.responses['200'].content['application/json'].schema);
     expect(answer.required).toEqual(expect.arrayContaining(['site', 'from', 'to', 'step', 'sun', 'moon', 'targets']));
-    expect(answer.properties.targets.items.properties.samples.items.required).toEqual(['time', 'altitude', 'azimuth', 'airmass']);
+    expect(deref(answer.properties.targets.items).properties.samples.items.required).toEqual(['time', 'altitude', 'azimuth', 'airmass']);
+    // Shapes used by several operations are described once: the scene body's targets refer to Target.
+    expect(patch.properties.targets.items).toEqual({ $ref: '#/components/schemas/Target' });
+    expect(deref(patch.properties.targets.items).oneOf).toHaveLength(3);
     // The compute API's body keeps its limits (API contract: lat −90..90).
     const windows = doc.paths['/api/sky/windows'].post.requestBody.content['application/json'].schema;
     expect(windows.properties.site.properties.lat).toMatchObject({ type: 'number', minimum: -90, maximum: 90 });

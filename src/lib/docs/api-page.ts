@@ -56,6 +56,14 @@ export interface Field {
   type: string;
   required: boolean;
   notes: string;
+  /** The shared shape the type names (`Target` for `Target[]`), described once further down the page. */
+  ref?: string;
+}
+
+/** The shared shape a field's type is, or is a list or nullable of. */
+export function namedOf(s: JsonSchema | undefined): string | undefined {
+  if (!s) return undefined;
+  return refName(s) ?? refName(s.allOf?.find((x) => x.$ref)) ?? namedOf(s.items) ?? (s.anyOf ?? s.oneOf ?? []).filter((a) => a.type !== 'null').map(namedOf).find((x) => x !== undefined && (s.anyOf ?? s.oneOf)!.length === 2);
 }
 
 export interface PageOperation extends OperationDoc {
@@ -81,11 +89,19 @@ export function byTag(doc: ApiDoc): { name: string; description: string; operati
   return groups.filter((g) => g.operations.length);
 }
 
-function resolve(doc: ApiDoc, s: JsonSchema | undefined): JsonSchema {
+/** A schema with its `$ref` followed and an `allOf` (a reference plus local notes) merged. */
+function resolve(doc: ApiDoc, s: JsonSchema | undefined, depth = 0): JsonSchema {
   let cur = s ?? {};
-  for (let i = 0; cur.$ref && i < 10; i++) cur = doc.components?.schemas?.[cur.$ref.replace('#/components/schemas/', '')] ?? {};
+  for (let i = 0; cur.$ref && i < 10; i++) cur = { ...doc.components?.schemas?.[cur.$ref.replace('#/components/schemas/', '')], ...(cur.description ? { description: cur.description } : {}) };
+  if (cur.allOf && depth < 5) {
+    const { allOf, ...rest } = cur;
+    cur = Object.assign({}, ...allOf.map((x) => resolve(doc, x, depth + 1)), rest);
+  }
   return cur;
 }
+
+/** The component name a schema refers to (`Target`), if it is a reference. */
+export const refName = (s: JsonSchema | undefined) => s?.$ref?.replace('#/components/schemas/', '');
 
 /** A nullable `anyOf: [X, {type: 'null'}]` as X, with `nullable` noted. */
 function unwrapNull(doc: ApiDoc, s: JsonSchema): { s: JsonSchema; nullable: boolean } {
@@ -103,7 +119,12 @@ function unwrapNull(doc: ApiDoc, s: JsonSchema): { s: JsonSchema; nullable: bool
 }
 
 export function typeOf(doc: ApiDoc, schema: JsonSchema | undefined): string {
-  const { s, nullable } = unwrapNull(doc, schema ?? {});
+  if (!schema) return 'any';
+  const pair = schema.anyOf ?? schema.oneOf;
+  if (pair && pair.length === 2 && pair.some((a) => a.type === 'null')) return `${typeOf(doc, pair.find((a) => a.type !== 'null'))} | null`;
+  const name = refName(schema) ?? refName(schema.allOf?.find((x) => x.$ref));
+  if (name) return name;
+  const { s, nullable } = unwrapNull(doc, schema);
   let t: string;
   if (s.enum) t = s.enum.map((v) => JSON.stringify(v)).join(' | ');
   else if (s.const !== undefined) t = JSON.stringify(s.const);
@@ -117,7 +138,10 @@ export function typeOf(doc: ApiDoc, schema: JsonSchema | undefined): string {
 
 const num = (n: number) => (n < 0 ? `−${-n}` : String(n));
 
-function notesOf(s: JsonSchema): string {
+/** Description, range, length, format and default of a field, in words. */
+export function notesOf(doc: ApiDoc, schema: JsonSchema | undefined): string {
+  const { s: r } = unwrapNull(doc, schema ?? {});
+  const s = { ...r, description: schema?.description ?? r.description };
   const out: string[] = [];
   if (s.description) out.push(s.description);
   const lo = s.minimum ?? s.exclusiveMinimum;
@@ -147,9 +171,9 @@ export function fieldsOf(doc: ApiDoc, schema: JsonSchema | undefined, depth = 2,
     for (const [name, p] of Object.entries(props)) {
       if (out.length >= max) return;
       const full = pre ? `${pre}${arr}.${name}` : name;
-      const { s: ps } = unwrapNull(doc, p);
-      out.push({ name: full, type: typeOf(doc, p), required: (target.required ?? []).includes(name), notes: notesOf({ ...ps, description: p.description ?? ps.description }) });
-      if (level < depth) walk(p, full, level + 1);
+      const ref = namedOf(p);
+      out.push({ name: full, type: typeOf(doc, p), required: (target.required ?? []).includes(name), notes: notesOf(doc, p), ...(ref ? { ref } : {}) });
+      if (level < depth && !ref) walk(p, full, level + 1);
     }
   };
   walk(schema, prefix, 1);
@@ -161,4 +185,24 @@ export function contentOf(content: Record<string, MediaType> | undefined): { typ
   if (!content) return null;
   const [type, media] = Object.entries(content)[0] ?? [];
   return type ? { type, schema: media?.schema } : null;
+}
+
+/** The shared shapes (`components.schemas`), each as its fields or, for a choice of shapes, each alternative's. */
+export function sharedShapes(doc: ApiDoc): { name: string; alternatives: { title: string; fields: Field[] }[]; type: string }[] {
+  return Object.entries(doc.components?.schemas ?? {}).map(([name, schema]) => {
+    const alts = schema.oneOf ?? schema.anyOf;
+    if (alts && !schema.properties) {
+      return {
+        name,
+        type: typeOf(doc, schema),
+        alternatives: alts.map((a, i) => {
+          const r = resolve(doc, a);
+          const kind = Object.entries(r.properties ?? {}).find(([, p]) => p.enum?.length === 1 || p.const !== undefined);
+          const title = kind ? `${kind[0]}: ${JSON.stringify(kind[1].const ?? kind[1].enum![0])}` : `shape ${i + 1}`;
+          return { title, fields: fieldsOf(doc, a, 1) };
+        }),
+      };
+    }
+    return { name, type: typeOf(doc, { ...schema }), alternatives: [{ title: '', fields: fieldsOf(doc, schema, 1) }] };
+  });
 }

@@ -28,8 +28,12 @@ function isGuardPipe(s: ZodTypeAny): boolean {
   return first === 'ZodUnknown' || first === 'ZodAny';
 }
 
-export function docSchema<T extends ZodTypeAny>(schema: T): ZodTypeAny {
-  return view(schema, new Map());
+/**
+ * `memo` maps original schemas to their documented form; seed it with registered (named) schemas and
+ * every place that uses one refers to the component instead of repeating it.
+ */
+export function docSchema<T extends ZodTypeAny>(schema: T, memo = new Map<ZodTypeAny, ZodTypeAny>()): ZodTypeAny {
+  return view(schema, memo);
 }
 
 function view(s: ZodTypeAny, memo: Map<ZodTypeAny, ZodTypeAny>): ZodTypeAny {

@@ -9,7 +9,7 @@ import { extendZodWithOpenApi, OpenAPIRegistry, OpenApiGeneratorV31 } from '@ast
 import { scopeNeeded, tokenReachable } from '../../contracts/token-access';
 import type { TokenScope } from '../../contracts/tokens';
 import { docSchema } from './doc-schema';
-import { OPERATIONS, TAGS, type Operation, type Who } from './operations';
+import { NAMED_SCHEMAS, OPERATIONS, TAGS, type Operation, type Who } from './operations';
 
 // Adds `.openapi()` to zod's types, which the generator calls on query and path parameters. Only this
 // server-side module does it; the schemas themselves carry no OpenAPI metadata.
@@ -90,6 +90,11 @@ function build() {
     description: 'The browser’s session after signing in. Requests that change something must come from the same origin.',
   });
 
+  // One memo for the whole document: a named schema is described once and referred to everywhere.
+  const memo = new Map<ZodTypeAny, ZodTypeAny>();
+  for (const [schema, name] of NAMED_SCHEMAS) memo.set(schema, registry.register(name, docSchema(schema, memo)));
+  const doc = (schema: ZodTypeAny) => docSchema(schema, memo);
+
   const seen = new Set<string>();
   for (const op of OPERATIONS) {
     const key = `${op.method} ${op.path}`;
@@ -105,7 +110,7 @@ function build() {
         ? { description: op.ok.description }
         : op.ok.status >= 400
           ? { description: op.ok.description, content: { 'application/json': { schema: errorRef } } }
-          : { description: op.ok.description, content: { [okType]: { schema: op.ok.schema ? docSchema(op.ok.schema) : okType === 'application/json' ? { type: 'object' } : { type: 'string' } } } };
+          : { description: op.ok.description, content: { [okType]: { schema: op.ok.schema ? doc(op.ok.schema) : okType === 'application/json' ? { type: 'object' } : { type: 'string' } } } };
     for (const status of errorStatuses(op)) {
       responses[String(status)] = { description: ERROR_TEXT[status] ?? 'Refused.', content: { 'application/json': { schema: errorRef } } };
     }
@@ -121,8 +126,8 @@ function build() {
       'x-access': op.who,
       request: {
         ...(params.length ? { params: z.object(Object.fromEntries(params.map((p) => [p, z.string()]))) } : {}),
-        ...(op.query ? { query: docSchema(op.query) as z.AnyZodObject } : {}),
-        ...(op.body ? { body: { required: true, content: { [op.body.type ?? 'application/json']: { schema: docSchema(op.body.schema) } } } } : {}),
+        ...(op.query ? { query: doc(op.query) as z.AnyZodObject } : {}),
+        ...(op.body ? { body: { required: true, content: { [op.body.type ?? 'application/json']: { schema: doc(op.body.schema) } } } } : {}),
       },
       responses,
     } as Parameters<OpenAPIRegistry['registerPath']>[0]);

@@ -11,10 +11,12 @@ import { activityQuerySchema } from '../../contracts/team';
 import { siteCreateSchema, sitePatchSchema } from '../../contracts/site';
 import { envelopeCreateSchema, envelopePatchSchema } from '../../contracts/envelope';
 import { restoreSchema, sceneCreateSchema, sceneListQuerySchema, scenePatchSchema } from '../../contracts/scene';
-import { commentCreateSchema, commentPatchSchema, guestCommentSchema } from '../../contracts/comment';
+import { anchorSchema, commentCreateSchema, commentPatchSchema, guestCommentSchema } from '../../contracts/comment';
+import { cameraSchema, layersSchema, pinSchema, siteSchema, stepSchema, targetSchema } from '../../contracts/scene-doc';
+import { envelopeSchema } from '../../contracts/envelope';
 import { linkCreateSchema } from '../../contracts/link';
 import { presenterSchema } from '../../contracts/presenter';
-import { placesQuerySchema, placesResponseSchema, zoneQuerySchema, zoneResponseSchema } from '../../contracts/places';
+import { placeSchema, placesQuerySchema, placesResponseSchema, zoneQuerySchema, zoneResponseSchema } from '../../contracts/places';
 import { nightAnswerSchema } from '../../contracts/night';
 import { nightQuerySchema } from '../../night/query';
 import { HORIZON_CONVENTIONS } from '../../imports/horizon-csv';
@@ -23,6 +25,24 @@ import { profileInput } from '../accounts';
 import { invitationInput, roleInput, teamInput } from '../teams';
 import { positionsQuerySchema, windowsCsvQuerySchema } from '../exports/responses';
 import { eventsQuerySchema, observeQuerySchema, windowsBodySchema } from '../sky-api';
+
+/**
+ * Schemas that several operations share, described once under `components.schemas` by these names and
+ * referred to elsewhere. Inner ones first: a later one refers to an earlier one it contains.
+ */
+export const NAMED_SCHEMAS: [ZodTypeAny, string][] = [
+  [siteSchema, 'Site'],
+  [cameraSchema, 'Camera'],
+  [layersSchema, 'Layers'],
+  [targetSchema, 'Target'],
+  [pinSchema, 'Pin'],
+  [stepSchema, 'Step'],
+  [envelopeSchema, 'Envelope'],
+  [anchorSchema, 'Anchor'],
+  [sceneFileSchema, 'SceneFile'],
+  [nightAnswerSchema, 'NightAnswer'],
+  [placeSchema, 'Place'],
+];
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
