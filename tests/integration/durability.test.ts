@@ -29,12 +29,15 @@ afterAll(() => s?.stop());
 describe('SQLite settings', () => {
   test('the database client opens files in WAL mode with synchronous = FULL', async () => {
     // SQLite docs (pragma.html#pragma_synchronous): FULL = 2; journal_mode=WAL persists in the file.
-    const { client } = await openDb(`file:${join(s.dir, 'pragma-check.db')}`);
+    const db = await openDb(`file:${join(s.dir, 'pragma-check.db')}`);
     try {
-      expect(String((await client.execute('PRAGMA journal_mode')).rows[0][0]).toLowerCase()).toBe('wal');
-      expect(Number((await client.execute('PRAGMA synchronous')).rows[0][0])).toBe(2);
+      // the writer's connection, where every write runs
+      const pragma = (name: string) => db.exclusive(async (_raw, client) => (await client.execute(`PRAGMA ${name}`)).rows[0][0]);
+      expect(String(await pragma('journal_mode')).toLowerCase()).toBe('wal');
+      expect(Number(await pragma('synchronous'))).toBe(2);
+      expect(Number(await pragma('foreign_keys'))).toBe(1);
     } finally {
-      client.close();
+      db.close();
     }
   });
 

@@ -6,6 +6,6 @@ import { cacheStats } from '../../lib/server/caches';
 
 /** Liveness for operators and probes: the database answers; the compute pool's figures and the caches' sizes and hit rates. Never computes. */
 export const GET = route(async () => {
-  await db.run(sql`select 1`);
+  await db.get(sql`select 1`);
   return json({ ok: true, compute: computePool().stats(), caches: cacheStats() });
 });

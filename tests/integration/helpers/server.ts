@@ -61,13 +61,13 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
   const dir = mkdtempSync(join(tmpdir(), 'armilla-test-'));
   const dbUrl = opts.dbUrl ?? `file:${join(dir, 'test.db')}`;
   if (!opts.dbUrl) {
-    const { db, client } = await openDb(dbUrl);
+    const db = await openDb(dbUrl);
     await migrateDb(db);
     if (opts.seed !== false) {
       const { seedDemo } = await import('../../../src/lib/server/seed');
       await seedDemo(db);
     }
-    client.close();
+    db.close();
   }
   const port = await freePort();
   const url = `http://127.0.0.1:${port}`;
