@@ -73,7 +73,9 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
   const url = `http://127.0.0.1:${port}`;
   let out = '';
   const launch = () => {
-    const proc = spawn(process.execPath, [resolve(process.env.ARMILLA_DIST ?? 'dist', 'server/armilla.mjs')], {
+    // ARMILLA_SERVER_NODE_ARGS: extra node flags for the server, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof` to profile a load run
+    const nodeArgs = (process.env.ARMILLA_SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+    const proc = spawn(process.execPath, [...nodeArgs, resolve(process.env.ARMILLA_DIST ?? 'dist', 'server/armilla.mjs')], {
       env: {
         ...process.env,
         HOST: '127.0.0.1',

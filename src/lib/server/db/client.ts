@@ -16,6 +16,7 @@
  * Runs outside Astro too (npm start, the test harness), so it imports no astro:* module.
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
+import { open } from 'node:fs/promises';
 import { createClient, type Client } from '@libsql/client';
 import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
 import * as schema from './schema';
@@ -67,6 +68,14 @@ export interface OpenOptions {
   groupCommit?: boolean;
   /** Retry budget for SQLITE_BUSY, ms (default ARMILLA_DB_BUSY_MS or 5000). */
   busyBudgetMs?: number;
+  /**
+   * How a commit is made durable before it is acknowledged (local files; default ARMILLA_DB_SYNC or
+   * 'fsync-off-loop'): 'fsync-off-loop' = SQLite commits with synchronous = NORMAL and the module
+   * fsyncs the write-ahead log on libuv's thread pool before answering the batch's jobs; 'full' =
+   * SQLite's synchronous = FULL, whose fsync runs inside COMMIT, on the event loop. Either way an
+   * acknowledged write has reached the disk.
+   */
+  sync?: 'fsync-off-loop' | 'full';
 }
 
 /** The write could not take the database's lock within the retry budget: `503` with `Retry-After`. */
@@ -133,8 +142,10 @@ export async function openDb(url = DEFAULT_DATABASE_URL, opts: OpenOptions | str
   // journal_mode is stored in the file; synchronous and foreign_keys are per connection (FULL is
   // libSQL's default, asserted here and checked by tests/integration/durability.test.ts).
   if (url.startsWith('file:')) await writer.execute('PRAGMA journal_mode = WAL');
+  const syncMode = o.sync ?? (process.env.ARMILLA_DB_SYNC === 'full' ? 'full' : 'fsync-off-loop');
+  const offLoop = path !== null && syncMode === 'fsync-off-loop';
   const setUpWriter = async () => {
-    if (url.startsWith('file:')) await writer.execute('PRAGMA synchronous = FULL');
+    if (url.startsWith('file:')) await writer.execute(`PRAGMA synchronous = ${offLoop ? 'NORMAL' : 'FULL'}`);
     await writer.execute('PRAGMA foreign_keys = ON');
   };
   await setUpWriter();
@@ -156,6 +167,7 @@ export async function openDb(url = DEFAULT_DATABASE_URL, opts: OpenOptions | str
             await writer.reconnect();
             await setUpWriter();
           },
+          ...(offLoop ? { sync: () => fsyncFile(`${path}-wal`) } : {}),
         })
       : null;
   const jobClient = {
@@ -222,6 +234,19 @@ export async function openDb(url = DEFAULT_DATABASE_URL, opts: OpenOptions | str
   } as unknown as Database;
   registerPreparedReads(db, reads);
   return db;
+}
+
+/**
+ * fsync of a file on libuv's thread pool (the event loop goes on meanwhile). fsync applies to the
+ * file, not the descriptor, so this flushes what SQLite's connection wrote to it.
+ */
+async function fsyncFile(file: string): Promise<void> {
+  const fh = await open(file, 'r');
+  try {
+    await fh.sync();
+  } finally {
+    await fh.close();
+  }
 }
 
 const isTx = (db: DbOrTx): db is Tx => typeof (db as Tx).rollback === 'function';

@@ -38,6 +38,11 @@ export interface WriteQueueOptions {
    * ("cannot open savepoint - SQL statements in progress") until the statement is garbage-collected.
    */
   reopen?: () => Promise<void>;
+  /**
+   * Makes a committed batch durable before its jobs are told (see client.ts, "sync"): called after
+   * each COMMIT; the jobs are answered when it resolves, and the next batch does not wait for it.
+   */
+  sync?: () => Promise<void>;
 }
 
 export interface WriteQueue {
@@ -140,7 +145,18 @@ export function writeQueue(client: Client, opts: WriteQueueOptions = {}): WriteQ
       for (const a of acks) a.failed(e);
       return;
     }
-    for (const a of acks) a.committed();
+    if (!opts.sync) {
+      for (const a of acks) a.committed();
+      return;
+    }
+    // The next batch starts while this one's fsync runs off the event loop; its jobs hear when it is done.
+    opts.sync().then(
+      () => acks.forEach((a) => a.committed()),
+      (e) => {
+        const err = new Error('The write was committed but could not be made durable (fsync of the write-ahead log failed).', { cause: e });
+        acks.forEach((a) => a.failed(err));
+      },
+    );
   }
 
   const transaction = (): Promise<Transaction> =>
