@@ -6,6 +6,16 @@ import tailwindcss from '@tailwindcss/vite';
 import { fileURLToPath } from 'node:url';
 import { armillaServer } from './src/lib/server/runtime/integration.mjs';
 import { computeWorker } from './src/lib/server/compute/build.mjs';
+import { createHash } from 'node:crypto';
+import { NIGHT_MODE_SCRIPT } from './src/components/ui/night-mode-script.ts';
+
+/**
+ * Our own `is:inline` scripts, allowed by the CSP through their SHA-256 (Astro hashes the scripts it
+ * writes itself: island bootstrap, directives, inlined page scripts). See src/lib/server/README.md, "Content-Security-Policy".
+ */
+const OWN_INLINE_SCRIPTS = [NIGHT_MODE_SCRIPT];
+/** @param {string} text */
+const sha256 = (text) => /** @type {`sha256-${string}`} */ (`sha256-${createHash('sha256').update(text, 'utf8').digest('base64')}`);
 
 /**
  * The sky view in the browser computes planets from a lighter cut of the VSOP87B series
@@ -32,6 +42,9 @@ export default defineConfig({
   integrations: [react(), armillaServer(), computeWorker()],
   // Astro's checkOrigin covers form posts only; src/middleware.ts checks every non-GET itself.
   security: { checkOrigin: false },
+  // Astro computes the hashes of the inline scripts our build produces and sets them on each page it
+  // renders; src/middleware.ts builds the whole policy from their script part (src/lib/server/README.md, "Content-Security-Policy").
+  experimental: { csp: { algorithm: 'SHA-256', scriptDirective: { hashes: OWN_INLINE_SCRIPTS.map(sha256) } } },
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
   env: {
     schema: {

@@ -1,10 +1,10 @@
-import { createHash } from 'node:crypto';
 import type { APIContext } from 'astro';
 import { defineMiddleware } from 'astro:middleware';
 import { readSession } from './lib/server/auth';
-import { authenticateBearer, bearerOf, scopeAllows, sessionOnly } from './lib/server/auth/tokens';
+import { authenticateBearer, bearerOf, scopeAllows, tokenReachable } from './lib/server/auth/tokens';
 import { clientAddress, errorResponse, HttpError } from './lib/server/http';
 import { resolveOriginParts, trustFromEnv } from './lib/server/proxy';
+import { buildCsp, devInlineScriptHashes, isEmbed, policyFor } from './lib/server/csp';
 
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
 
@@ -42,64 +42,23 @@ function ownOrigin(ctx: APIContext): string {
 }
 
 /**
- * Security headers on every response. The CSP allows scripts from our origin only: instead of
- * 'unsafe-inline', each inline script that Astro writes into a page (island bootstrap, small hoisted
- * modules) is allowed by its SHA-256, computed here from the HTML actually sent. Pages under /embed/
- * may be framed by other sites; everything else refuses to be framed.
+ * Security headers on every response. The CSP (src/lib/server/csp.ts; why: src/lib/server/README.md) allows scripts
+ * from our origin plus the inline scripts our build produced, by the hashes Astro computed at build time
+ * and set on the page; nothing is hashed from the HTML, so an injected inline script stays blocked. Pages
+ * under /embed/ may be framed by other sites; everything else refuses to be framed.
  */
-const INLINE_SCRIPT_RE = /<script\b([^>]*)>([\s\S]*?)<\/script>/gi;
-
-function inlineScriptHashes(html: string): string[] {
-  const out = new Set<string>();
-  for (const m of html.matchAll(INLINE_SCRIPT_RE)) {
-    const attrs = m[1] ?? '';
-    const body = m[2] ?? '';
-    if (/\ssrc\s*=/i.test(attrs) || body.length === 0) continue;
-    if (/type\s*=\s*["']?application\/(ld\+)?json/i.test(attrs)) continue;
-    out.add(`'sha256-${createHash('sha256').update(body, 'utf8').digest('base64')}'`);
-  }
-  return [...out];
-}
-
-const isEmbed = (pathname: string) => pathname === '/embed' || pathname.startsWith('/embed/');
-
-function contentSecurityPolicy(pathname: string, scriptHashes: string[]): string {
-  const embed = isEmbed(pathname);
-  if (!scriptHashes.length) return embed ? CSP_EMBED_NO_SCRIPTS : CSP_NO_SCRIPTS;
-  return buildCsp(embed, scriptHashes);
-}
-
-function buildCsp(embed: boolean, scriptHashes: string[]): string {
-  return [
-    "default-src 'self'",
-    `script-src 'self'${scriptHashes.length ? ' ' + scriptHashes.join(' ') : ''}`,
-    "style-src 'self' 'unsafe-inline'",
-    "img-src 'self' data: blob:",
-    "font-src 'self' data:",
-    "connect-src 'self'",
-    "worker-src 'self' blob:",
-    "object-src 'none'",
-    "base-uri 'self'",
-    "form-action 'self'",
-    embed ? 'frame-ancestors *' : "frame-ancestors 'none'",
-  ].join('; ');
-}
-
-/** The policies of responses without inline scripts (every API answer), built once. */
-const CSP_NO_SCRIPTS = buildCsp(false, []);
-const CSP_EMBED_NO_SCRIPTS = buildCsp(true, []);
-
 async function withSecurityHeaders(ctx: APIContext, response: Response): Promise<Response> {
   let res = response;
-  let hashes: string[] = [];
-  if ((res.headers.get('content-type') ?? '').includes('text/html') && res.body) {
+  let policy = policyFor(ctx.url.pathname, res.headers.get('content-security-policy'));
+  if (import.meta.env.DEV && (res.headers.get('content-type') ?? '').includes('text/html') && res.body) {
+    // `astro dev` computes no CSP: hash what the page holds (dev only; see devInlineScriptHashes).
     const html = await res.text();
-    hashes = inlineScriptHashes(html);
+    policy = buildCsp(isEmbed(ctx.url.pathname), devInlineScriptHashes(html));
     res = new Response(html, { status: res.status, statusText: res.statusText, headers: res.headers });
   }
   const embed = isEmbed(ctx.url.pathname);
   const apply = (h: Headers) => {
-    h.set('content-security-policy', contentSecurityPolicy(ctx.url.pathname, hashes));
+    h.set('content-security-policy', policy);
     h.set('x-content-type-options', 'nosniff');
     // A page may ask for a stricter policy (the shared-scene page sends no-referrer: its URL is the token).
     if (!h.has('referrer-policy')) h.set('referrer-policy', 'strict-origin-when-cross-origin');
@@ -130,7 +89,7 @@ async function tokenRequest(ctx: APIContext, bearer: string): Promise<Response |
   try {
     const { pathname } = ctx.url;
     const auth = await authenticateBearer(bearer, clientAddress(ctx));
-    if (sessionOnly(pathname)) {
+    if (!tokenReachable(pathname)) {
       throw new HttpError(403, 'session_required', 'Tokens and passwords are managed from a signed-in browser session, not with a token.');
     }
     if (!scopeAllows(auth.token.scope, ctx.request.method, pathname)) {

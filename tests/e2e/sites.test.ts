@@ -22,8 +22,23 @@ browserTest('an editor creates a scene by searching a town', async () => {
   const browser = await world.browser();
   const { page, realErrors, cspViolations } = await newPage(browser, { baseURL: world.url, viewport: { width: 1440, height: 900 } });
   await signIn(page, DEMO.editor);
-  await page.goto('/scenes/new');
+  // The title is typed while the form is still plain HTML: the island's script is held back until then,
+  // so the test does not depend on timing. The form must keep the text once it hydrates.
+  let release = () => {};
+  const held = new Promise<void>((r) => (release = r));
+  await page.route(/\/_astro\/SceneNew\.[\w-]+\.js$/, async (route) => {
+    await held;
+    await route.continue();
+  });
+  await page.goto('/scenes/new', { waitUntil: 'domcontentloaded' });
+  const island = page.locator('astro-island[component-url*="/SceneNew."]');
   await page.getByLabel(/^Title/).fill('Night over La Serena');
+  expect(await island.getAttribute('ssr'), 'the form must still be server-rendered HTML while the title is typed').not.toBeNull();
+  expect(await page.getByRole('button', { name: 'Create scene' }).isDisabled()).toBe(true);
+  release();
+  await expect.poll(() => island.evaluate((el) => el.hasAttribute('ssr')), { timeout: 30_000 }).toBe(false);
+  await page.unroute(/\/_astro\/SceneNew\.[\w-]+\.js$/);
+  expect(await page.getByLabel(/^Title/).inputValue()).toBe('Night over La Serena');
 
   // A blank site first asks before using 0°, 0°.
   await page.getByRole('button', { name: 'Use this site' }).click();
@@ -69,8 +84,8 @@ browserTest('an editor creates a scene by searching a town', async () => {
 
   await page.getByRole('button', { name: 'Use this site' }).click();
   await page.getByText('Site set: La Serena').waitFor();
-  // The title typed at the start can be lost if it was typed before the form hydrated: type it again.
-  await page.getByLabel(/^Title/).fill('Night over La Serena');
+  // The title typed before hydration is still there (it is not typed again).
+  expect(await page.getByLabel(/^Title/).inputValue()).toBe('Night over La Serena');
   await screenshot(page, 'sites-new-scene-1440x900');
   await page.getByRole('button', { name: 'Create scene' }).click();
   await page.waitForURL((u) => /^\/scenes\/(?!new$)[^/]+$/.test(u.pathname), { timeout: 30_000 });

@@ -1,8 +1,8 @@
 /**
  * A tour of every page a user meets, at a laptop (1440 × 900) and a phone (390 × 844): landing, sky,
  * sign-in, dashboard, each demo scene, a handout, new scene, account, a viewer link, a reviewer link, the
- * presenter and a follower of the presentation. Each page fails the tour on a console error, an uncaught
- * error, a failed request (network failure or 4xx/5xx answer), a horizontal scrollbar, or — on the
+ * presenter and a follower of the presentation. Each page fails the tour on a console error (a
+ * Content-Security-Policy violation is reported as one), an uncaught error, a failed request (network failure or 4xx/5xx answer), a horizontal scrollbar, or — on the
  * presenter's and the follower's stage — any element drawn over the step's caption. Every page is also
  * checked with axe-core (Deque's rules for WCAG 2.x): no serious or critical finding. Screenshots of each
  * page go to tests/e2e/output/tour-<viewport>-<page>.png.
@@ -12,7 +12,7 @@ import { readFileSync } from 'node:fs';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { expect } from 'vitest';
 import { DEMO } from '../integration/helpers/client';
-import { browserTest, e2eWorld, screenshot } from './helpers/browser';
+import { browserTest, e2eWorld, reportCspViolations, screenshot } from './helpers/browser';
 
 const world = e2eWorld();
 const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
@@ -58,6 +58,8 @@ async function context(browser: Browser, vp: (typeof VIEWPORTS)[number], user?: 
     const r = await ctx.request.post('/api/auth/sign-in', { data: { email: user, password: DEMO.password } });
     expect(r.status()).toBe(200);
   }
+  // A CSP violation (one of our own scripts refused, say) is reported as a console error: it fails the page.
+  await ctx.addInitScript(reportCspViolations);
   const w = watch(ctx);
   const page = await ctx.newPage();
   return { ctx, page, w };

@@ -9,12 +9,16 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { startServer, type TestServer } from './helpers/server';
 import { ApiClient, DEMO } from './helpers/client';
 import { dbChecksum, VOLATILE_TABLES } from './helpers/hardening';
+import { startMailFake, type MailFake } from './helpers/mail';
+import { createClient } from '@libsql/client';
+import { inlineScriptsOf, scriptHashesOf, sha256Source } from '../../src/lib/server/csp';
 
 /** The issue's limit; `ARMILLA_HEALTH_LIMIT_MS` relaxes it on a machine shared with other heavy jobs (say so when used). */
 const HEALTH_LIMIT_MS = Number(process.env.ARMILLA_HEALTH_LIMIT_MS ?? 250);
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 let s: TestServer;
+let mail: MailFake;
 let editor: ApiClient;
 let teamId = '';
 /** A demo scene's export file, the template of the fixtures. */
@@ -86,7 +90,8 @@ const targets = (n: number, name = (i: number) => `T${i}`) =>
 let big: { id: string; token: string };
 
 beforeAll(async () => {
-  s = await startServer();
+  mail = await startMailFake();
+  s = await startServer({ env: { SMTP_URL: mail.smtpUrl } });
   editor = new ApiClient(s.url);
   await editor.signIn(DEMO.editor);
   teamId = (await editor.get('/api/me')).data.teams[0].id;
@@ -103,6 +108,7 @@ afterAll(async () => {
     console.log(`  worst overall: ${Math.max(...report.map((r) => r.worstHealthMs))} ms (limit ${HEALTH_LIMIT_MS} ms)`);
   }
   await s?.stop();
+  await mail?.stop();
 });
 
 describe('1. bodies are size- and length-checked before their elements', () => {
@@ -233,6 +239,89 @@ describe('5. thumbnails are bounded', () => {
   });
 });
 
+describe('6. invitation mail is limited per sender and per team', () => {
+  // The probe's sender called themselves this, so that the mail would read as the service's own words.
+  const HOSTILE_NAME = 'URGENT: your mailbox is full, visit https://mbx.example/fix\nthen sign in again now';
+  let sender: ApiClient;
+  let senderTeam = '';
+  const tag = Date.now().toString(36);
+  const addr = (i: number) => `burst-${tag}-${i}@adversarial.example`;
+  const mailsTo = async (addrs: string[]) => (await mail.all()).filter((m) => m.to.some((t) => addrs.includes(t)));
+
+  beforeAll(async () => {
+    sender = new ApiClient(s.url);
+    const r = await sender.post('/api/auth/sign-up', { email: `sender-${tag}@adversarial.example`, password: 'a long enough password', name: HOSTILE_NAME });
+    if (r.status !== 201) throw new Error(`sign-up → ${r.status} ${JSON.stringify(r.data)}`);
+    senderTeam = (await sender.get('/api/me')).data.teams[0].id;
+  });
+
+  test('25 invitations at once (finding 6): 20 are mailed, 5 answer 429 naming the limit, and no more mail goes out', async () => {
+    const rs = await Promise.all(Array.from({ length: 25 }, (_, i) => sender.post(`/api/teams/${senderTeam}/invitations`, { email: addr(i), role: 'editor' })));
+    const ok = rs.map((r, i) => [r, addr(i)] as const).filter(([r]) => r.status === 201);
+    const refused = rs.filter((r) => r.status === 429);
+    expect(ok.length).toBe(20); // INVITATION_LIMITS.perSenderPerHour
+    expect(refused.length).toBe(5);
+    for (const r of refused) {
+      expect(Number(r.headers.get('retry-after'))).toBeGreaterThan(0);
+      expect(Number(r.headers.get('retry-after'))).toBeLessThanOrEqual(3600);
+      expect(r.data.error.code).toBe('rate_limited');
+      expect(r.data.error.message).toMatch(/20 invitations this hour.*Try again in \d+ (second|minute|hour)s?\./);
+    }
+    const mailed = ok.map(([, a]) => a);
+    await mail.waitFor(mailed[mailed.length - 1]!);
+    await expect.poll(async () => (await mailsTo(mailed)).length, { timeout: 10_000 }).toBe(20);
+    await sleep(300);
+    const all = Array.from({ length: 25 }, (_, i) => addr(i));
+    expect((await mailsTo(all)).length, 'mails sent for the 25 requests').toBe(20);
+    const pending = await sender.get(`/api/teams/${senderTeam}/invitations`);
+    expect(pending.data.invitations.length).toBe(20);
+  });
+
+  test('one more invitation past the limit → 429 while health stays quick, nothing written, no mail', async () => {
+    const extra = `late-${tag}@adversarial.example`;
+    const r = await hostile('6 invitation past the sender limit', () => post(`/api/teams/${senderTeam}/invitations`, JSON.stringify({ email: extra, role: 'viewer' }), {}, sender), 429);
+    expect(r.headers.get('retry-after')).toMatch(/^\d+$/);
+    await sleep(300);
+    expect(await mailsTo([extra])).toEqual([]);
+  });
+
+  test('a team that has sent 50 invitations today (counted in the database, so every instance agrees) → 429 naming the team limit', async () => {
+    const owner = new ApiClient(s.url);
+    await owner.signIn(DEMO.owner);
+    // The team's counter as the server keeps it: rate_limits(key, window_start, count), a UTC-day window.
+    const db = createClient({ url: s.dbUrl });
+    const day = Math.floor(Date.now() / 1000 / 86_400) * 86_400;
+    await db.execute({ sql: 'insert into rate_limits (key, window_start, count) values (?, ?, 50) on conflict (key, window_start) do update set count = 50', args: [`invite:team:${teamId}`, day] });
+    db.close();
+    const invitee = `team-cap-${tag}@adversarial.example`;
+    const r = await owner.post(`/api/teams/${teamId}/invitations`, { email: invitee, role: 'viewer' });
+    expect(r.status).toBe(429);
+    expect(r.data.error.message).toMatch(/50 invitations today/);
+    expect(Number(r.headers.get('retry-after'))).toBeLessThanOrEqual(86_400);
+    // A refused attempt is not counted; and a body that fails validation gives its hit back as well.
+    const db2 = createClient({ url: s.dbUrl });
+    const count = await db2.execute({ sql: 'select count from rate_limits where key = ? and window_start = ?', args: [`invite:team:${teamId}`, day] });
+    await db2.execute({ sql: 'delete from rate_limits where key = ?', args: [`invite:team:${teamId}`] });
+    db2.close();
+    expect(Number(count.rows[0]!.count)).toBe(50);
+    expect((await owner.post(`/api/teams/${teamId}/invitations`, { email: 'not an address', role: 'viewer' })).status).toBe(400);
+    await sleep(300);
+    expect(await mailsTo([invitee])).toEqual([]);
+  });
+
+  test('a hostile display name stays out of the subject and is one bounded, quoted line in the body', async () => {
+    const m = (await mailsTo(Array.from({ length: 25 }, (_, i) => addr(i))))[0]!;
+    expect(m.subject).toBe('An invitation to a team on Armilla');
+    expect(m.subject).not.toMatch(/URGENT|visit/i);
+    const line = m.text.split('\n').find((l) => l.includes('URGENT'))!;
+    const quoted = /“([^”]*)”/.exec(line)![1]!;
+    expect(quoted.length).toBeLessThanOrEqual(60);
+    expect(quoted.endsWith('…')).toBe(true);
+    expect(m.text).not.toContain('then sign in again now');
+    expect(m.html).not.toContain('then sign in again now');
+  });
+});
+
 describe('7–8. redirects and CSV cells', () => {
   test('next=/%09/evil.example and next=/%0a/x stay on the site, no 500', async () => {
     for (const next of ['/%09/evil.example', '/%0a/x', '/%5Cevil.example']) {
@@ -274,6 +363,38 @@ describe('10. the smaller findings', () => {
   test('/s/:token keeps its no-referrer policy', async () => {
     const r = await fetch(`${s.url}/s/${big.token}`);
     expect(r.headers.get('referrer-policy')).toBe('no-referrer');
+  });
+
+  test('the CSP allows each page’s own inline scripts by hash, the same whatever the page holds', async () => {
+    const small = await fixtureScene('Three targets', { targets: targets(3) });
+    const other = await fixtureScene('Seven targets and <script>a title that looks like one</script>', { targets: targets(7) });
+    const pages: [string, ApiClient | null][] = [
+      ['/', null],
+      ['/sign-in', null],
+      [`/s/${small.token}`, null],
+      [`/s/${small.token}/handout`, null],
+      ['/dashboard', editor],
+      [`/scenes/${small.id}`, editor],
+      [`/scenes/${small.id}/handout`, editor],
+      ['/scenes/new', editor],
+    ];
+    let inline = 0;
+    for (const [path, who] of pages) {
+      const r = await fetch(s.url + path, { headers: who ? { cookie: cookie(who) } : {} });
+      expect(r.status, path).toBe(200);
+      const csp = r.headers.get('content-security-policy') ?? '';
+      expect(csp, path).not.toMatch(/script-src[^;]*'unsafe-inline'/);
+      const allowed = new Set(scriptHashesOf(csp));
+      for (const script of inlineScriptsOf(await r.text())) {
+        inline++;
+        expect(allowed.has(sha256Source(script)), `${path}: inline script not allowed: ${script.slice(0, 80)}`).toBe(true);
+      }
+    }
+    expect(inline, 'pages with islands carry inline scripts').toBeGreaterThan(pages.length);
+    // Two scenes' pages differ in content, not in policy: the hashes come from the build.
+    const a = await fetch(`${s.url}/scenes/${small.id}`, { headers: { cookie: cookie(editor) } });
+    const b = await fetch(`${s.url}/scenes/${other.id}`, { headers: { cookie: cookie(editor) } });
+    expect(a.headers.get('content-security-policy')).toBe(b.headers.get('content-security-policy'));
   });
 
   test('a viewer sees that someone was invited, not whom', async () => {

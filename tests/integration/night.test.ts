@@ -4,6 +4,8 @@
  * `/api/sky/observe` (the engine's fixed single-place route), airmass null below the horizon, bad
  * parameters answer 400 naming the field and change nothing.
  */
+import { get } from 'node:http';
+import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ApiClient, DEMO } from './helpers/client';
 import { startServer, type TestServer } from './helpers/server';
@@ -175,6 +177,31 @@ describe('GET /api/shared/:token/night', () => {
     expect(b.data).toEqual(a.data);
     expect(b.data.bodies.map((x: { body: string }) => x.body)).toEqual(['moon', 'saturn']);
     expect((await anon.get(`/api/shared/not-a-token-${'x'.repeat(20)}/night`)).status).toBe(404);
+  });
+
+  it('answers brotli, gzip or plain JSON as the request accepts (encoded on the compute thread), all the same data', async () => {
+    const q = 'from=2026-03-20T20:00:00Z&to=2026-03-21T04:00:00Z&step=5';
+    const raw = (acceptEncoding: string) =>
+      new Promise<{ encoding: string | undefined; vary: string | undefined; length: number; body: Buffer }>((resolve, reject) => {
+        get(`${server.url}/api/shared/${token}/night?${q}`, { headers: { 'accept-encoding': acceptEncoding } }, (res) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (c: Buffer) => chunks.push(c));
+          res.on('end', () => resolve({ encoding: res.headers['content-encoding'], vary: res.headers.vary, length: Number(res.headers['content-length']), body: Buffer.concat(chunks) }));
+        }).on('error', reject);
+      });
+    const plain = await raw('identity');
+    expect(plain.encoding).toBeUndefined();
+    expect(plain.length).toBe(plain.body.length);
+    const data = JSON.parse(plain.body.toString('utf8'));
+    expect(data.targets.map((t: { name: string }) => t.name)).toEqual(['Field A', 'Field B', 'Vega', 'Jupiter']);
+    const br = await raw('gzip, deflate, br');
+    expect(br.encoding).toBe('br');
+    expect(br.vary).toMatch(/accept-encoding/i);
+    expect(br.body.length).toBeLessThan(plain.body.length / 3);
+    expect(JSON.parse(brotliDecompressSync(br.body).toString('utf8'))).toEqual(data);
+    const gz = await raw('gzip');
+    expect(gz.encoding).toBe('gzip');
+    expect(JSON.parse(gunzipSync(gz.body).toString('utf8'))).toEqual(data);
   });
 });
 

@@ -66,7 +66,7 @@ export function CoverageChart({ data, cursor, highlight = null, timeZone, ink = 
       <circle cx={cx} cy={cy} r={R} fill={c(SURFACE.sky)} stroke={c(LABELS.axis)} strokeWidth={1} />
       <g clipPath={`url(#${id}-sky)`}>
         <path d={forbidden.lower} fill={c(PLAN.forbidden)} fillRule="evenodd" opacity={0.22} data-part="forbidden" />
-        {forbidden.upper && <path d={forbidden.upper} fill={c(PLAN.forbidden)} opacity={0.22} />}
+        {forbidden.upper && <path d={forbidden.upper} fill={c(PLAN.forbidden)} opacity={0.22} data-part="forbidden-top" />}
         {[30, 60].map((a) => (
           <circle key={a} cx={cx} cy={cy} r={(R * (90 - a)) / 90} fill="none" stroke={c(PLAN_LINES.altitudeRing)} strokeWidth={0.6} strokeDasharray="2 4" />
         ))}

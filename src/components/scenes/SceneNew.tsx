@@ -1,6 +1,6 @@
 /** /scenes/new: a blank scene, one from a team site, or a copy of an existing scene. */
 import { useScenes, useSites } from '../../lib/client/queries';
-import { useId, useState } from 'react';
+import { useId, useRef, useState, useSyncExternalStore } from 'react';
 import { useMutation } from '@tanstack/react-query';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
@@ -12,6 +12,9 @@ import type { Site } from '../../lib/contracts/scene-doc';
 import { SiteForm } from './EditorPanel';
 import { INPUT, LABEL } from './controls';
 import { SceneFileImport } from './SceneFileImport';
+import { useKeepEarlyInput } from '../ui/early-input';
+
+const noSubscription = () => () => {};
 
 type Mode = 'blank' | 'site' | 'copy';
 interface TeamLite {
@@ -29,6 +32,18 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
   const [siteId, setSiteId] = useState('');
   const [copyOf, setCopyOf] = useState(fromSceneId ?? '');
   const [err, setErr] = useState<string | null>(null);
+  // What was typed or chosen while the page was still plain HTML is kept (ui/early-input.ts); the submit
+  // button waits for the form to be live (before that it would send the page a plain GET and lose it all).
+  const formRef = useRef<HTMLFormElement>(null);
+  useKeepEarlyInput(formRef, (name, v) => {
+    if (name === 'title') setTitle(v);
+    else if (name === 'time') setTime(v);
+    else if (name === 'mode' && (v === 'blank' || v === 'site' || v === 'copy')) setMode(v);
+    else if (name === 'teamId') setTeamId(v);
+    else if (name === 'siteId') setSiteId(v);
+    else if (name === 'fromSceneId') setCopyOf(v);
+  });
+  const live = useSyncExternalStore(noSubscription, () => true, () => false);
   const sites = useSites(teamId, !!teamId);
   const scenes = useScenes(teamId, !!teamId);
   const create = useMutation({
@@ -61,6 +76,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
   return (
     <>
     <form
+      ref={formRef}
       className="flex max-w-2xl flex-col gap-4"
       onSubmit={(e) => {
         e.preventDefault();
@@ -73,7 +89,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
           <label htmlFor={`${id}-team`} className={LABEL}>
             Team
           </label>
-          <select id={`${id}-team`} className={INPUT} value={teamId} onChange={(e) => setTeamId(e.target.value)}>
+          <select id={`${id}-team`} name="teamId" className={INPUT} value={teamId} onChange={(e) => setTeamId(e.target.value)}>
             {teams.map((t) => (
               <option key={t.id} value={t.id}>
                 {t.name}
@@ -108,7 +124,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
           <label htmlFor={`${id}-time`} className={LABEL}>
             Instant (UTC)
           </label>
-          <input id={`${id}-time`} type="datetime-local" className={INPUT} value={time} onChange={(e) => setTime(e.target.value)} />
+          <input id={`${id}-time`} name="time" type="datetime-local" className={INPUT} value={time} onChange={(e) => setTime(e.target.value)} />
         </div>
       )}
       {mode === 'site' && (
@@ -116,7 +132,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
           <label htmlFor={`${id}-site`} className={LABEL}>
             Site
           </label>
-          <select id={`${id}-site`} className={INPUT} value={siteId} onChange={(e) => setSiteId(e.target.value)}>
+          <select id={`${id}-site`} name="siteId" className={INPUT} value={siteId} onChange={(e) => setSiteId(e.target.value)}>
             <option value="">Choose…</option>
             {(sites.data?.sites ?? []).map((s) => (
               <option key={s.id} value={s.id}>
@@ -138,7 +154,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
           <label htmlFor={`${id}-copy`} className={LABEL}>
             Scene to copy
           </label>
-          <select id={`${id}-copy`} className={INPUT} value={copyOf} onChange={(e) => setCopyOf(e.target.value)}>
+          <select id={`${id}-copy`} name="fromSceneId" className={INPUT} value={copyOf} onChange={(e) => setCopyOf(e.target.value)}>
             <option value="">Choose…</option>
             {(scenes.data?.scenes ?? []).map((s) => (
               <option key={s.id} value={s.id}>
@@ -150,7 +166,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
       )}
       {err && <Alert tone="error">{err}</Alert>}
       <div>
-        <Button type="submit" busy={create.isPending}>
+        <Button type="submit" busy={create.isPending} disabled={!live}>
           Create scene
         </Button>
       </div>

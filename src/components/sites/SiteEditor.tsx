@@ -10,6 +10,7 @@ import type { Place } from '../../lib/contracts/places';
 import { Button } from '../ui/Button';
 import { INPUT, LABEL } from '../scenes/controls';
 import { PlaceSearch, placeLabel } from './PlaceSearch';
+import { useKeepEarlyInput } from '../ui/early-input';
 
 let zonesCache: string[] | null = null;
 export function timeZones(): string[] {
@@ -42,6 +43,14 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
   const [locating, setLocating] = useState(false);
   const zones = useMemo(timeZones, []);
   const coordsTouched = useRef(false);
+  // Fields filled in before the island hydrated keep their text (ui/early-input.ts).
+  const rootRef = useRef<HTMLDivElement>(null);
+  useKeepEarlyInput(rootRef, (name, v) => {
+    if (name === 'lat' || name === 'lon') {
+      setCoords({ [name]: v });
+      setFrom('Typed by you');
+    } else if (name in f) setF((x) => ({ ...x, [name]: v }));
+  });
 
   // The zone follows the coordinates (debounced) unless the user chose one by hand.
   useEffect(() => {
@@ -170,7 +179,7 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
   );
 
   return (
-    <div className="flex flex-col gap-3">
+    <div ref={rootRef} className="flex flex-col gap-3">
       <PlaceSearch onPick={pickPlace} />
       <div>
         <Button variant="ghost" className="px-0" onClick={useMyLocation} busy={locating}>

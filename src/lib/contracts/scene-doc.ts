@@ -10,7 +10,8 @@ export const isoUtc = z
   .regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]00:?00)$/, 'must be an ISO 8601 UTC time such as 2026-03-20T19:30:00Z')
   .refine((s) => !Number.isNaN(Date.parse(s)), 'is not a real date')
   // Date.parse rolls 2026-02-30 over to 2 March; only UTC offsets are allowed, so the date must round-trip.
-  .refine((s) => Number.isNaN(Date.parse(s)) || new Date(s).toISOString().slice(0, 10) === s.slice(0, 10), 'is not a real date');
+  .refine((s) => Number.isNaN(Date.parse(s)) || new Date(s).toISOString().slice(0, 10) === s.slice(0, 10), 'is not a real date')
+  .describe('ISO 8601 instant in UTC, e.g. 2026-03-20T19:30:00Z');
 
 /** Zones found valid so far: building an Intl.DateTimeFormat costs more than the rest of a scene's check. */
 const knownZones = new Set<string>();

@@ -158,6 +158,9 @@ export const scenePatchSchema = knownKeysOnly(
 );
 export type ScenePatchBody = z.infer<typeof scenePatchShape>;
 
+/** `GET /api/scenes?teamId=`: one team's scenes only. */
+export const sceneListQuerySchema = z.object({ teamId: z.string().min(1).max(64).optional() });
+
 const restoreShape = z.object({ version: z.number().int().min(1).optional() });
 export const restoreSchema = knownKeysOnly(restoreShape, restoreShape);
 

@@ -1,5 +1,14 @@
 /** Teams, members and the signed-in user's summary, as the API returns them. */
+import { z } from 'zod';
 import type { Role } from './roles';
+import { isoUtc } from './scene-doc';
+
+/** `GET /api/teams/:teamId/activity?limit=&before=`. */
+export const activityQuerySchema = z.object({
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  /** Page back: entries strictly before this instant. */
+  before: isoUtc.optional(),
+});
 
 export interface TeamSummary {
   id: string;

@@ -52,7 +52,23 @@ export interface Reservation {
  * read "4 of 5" and all proceed) and the attempt is refused when any is over its limit — the hits are
  * then given back, so refused attempts do not count. 429 with the longest Retry-After of the limits hit.
  */
-export async function reserve(limits: { key: string; limit: number; windowSec: number }[], now = Date.now()): Promise<Reservation> {
+export interface ReservedLimit {
+  key: string;
+  limit: number;
+  windowSec: number;
+  /** What the refusal says when this limit is the one hit (the wait is appended); a generic line otherwise. */
+  message?: string;
+}
+
+/** "45 seconds", "12 minutes", "3 hours": how long a 429 asks the client to wait, in words. */
+export function waitInWords(sec: number): string {
+  const unit = (n: number, w: string) => `${n} ${w}${n === 1 ? '' : 's'}`;
+  if (sec < 90) return unit(Math.max(1, Math.round(sec)), 'second');
+  if (sec < 90 * 60) return unit(Math.round(sec / 60), 'minute');
+  return unit(Math.round(sec / 3600), 'hour');
+}
+
+export async function reserve(limits: ReservedLimit[], now = Date.now()): Promise<Reservation> {
   const rows = limits.map((l) => ({ key: l.key, windowStart: Math.floor(now / 1000 / l.windowSec) * l.windowSec, count: 1 }));
   // One statement for every counter: one write (and one fsync) an attempt, whatever the number of limits.
   const counts = await db.write((tx) =>
@@ -71,12 +87,19 @@ export async function reserve(limits: { key: string; limit: number; windowSec: n
     await db.write((tx) => tx.run(sql`update rate_limits set count = count - 1 where count > 0 and (${match})`));
   };
   let retryAfter = 0;
+  let hit: ReservedLimit | undefined;
   limits.forEach((l, i) => {
-    if ((countOf.get(l.key) ?? 1) > l.limit) retryAfter = Math.max(retryAfter, rows[i]!.windowStart + l.windowSec - Math.floor(now / 1000));
+    const wait = rows[i]!.windowStart + l.windowSec - Math.floor(now / 1000);
+    if ((countOf.get(l.key) ?? 1) > l.limit && wait > retryAfter) {
+      retryAfter = wait;
+      hit = l;
+    }
   });
   if (retryAfter > 0) {
     await release();
-    throw new HttpError(429, 'rate_limited', 'Too many attempts; try again later.', undefined, undefined, { 'retry-after': String(Math.max(1, retryAfter)) });
+    const wait = Math.max(1, retryAfter);
+    const message = hit?.message ? `${hit.message} Try again in ${waitInWords(wait)}.` : 'Too many attempts; try again later.';
+    throw new HttpError(429, 'rate_limited', message, undefined, undefined, { 'retry-after': String(wait) });
   }
   return { release };
 }

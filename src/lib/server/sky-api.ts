@@ -38,7 +38,8 @@ const instant = z
       return z.NEVER;
     }
     return d;
-  });
+  })
+  .describe('ISO 8601 instant in UTC, e.g. 2026-03-20T19:30:00Z');
 
 const bodyEnum = z.enum(BODY_NAMES as unknown as [BodyName, ...BodyName[]], {
   errorMap: () => ({ message: `must be one of ${BODY_NAMES.join(', ')}` }),

@@ -37,6 +37,17 @@ export async function launch(): Promise<Browser> {
   });
 }
 
+/**
+ * Init script for a browser context: every `securitypolicyviolation` event becomes a console error
+ * ("Content Security Policy violation: …"), so a script of ours that the CSP blocks fails the test
+ * (init scripts run outside the page's CSP).
+ */
+export function reportCspViolations(): void {
+  document.addEventListener('securitypolicyviolation', (e) => {
+    console.error(`Content Security Policy violation: ${e.effectiveDirective} blocked ${e.blockedURI || 'an inline script'} at ${e.sourceFile}:${e.lineNumber} (${e.sample})`);
+  });
+}
+
 export interface CapturedPage {
   page: Page;
   context: BrowserContext;
@@ -54,6 +65,7 @@ export async function newPage(browser: Browser, opts: { baseURL?: string; viewpo
     viewport: opts.viewport ?? { width: 1280, height: 800 },
     colorScheme: 'dark',
   });
+  await context.addInitScript(reportCspViolations);
   const page = await context.newPage();
   const errors: string[] = [];
   page.on('console', (m) => {

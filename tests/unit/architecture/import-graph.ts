@@ -52,7 +52,8 @@ export function importGraph(root: string, srcDir = 'src'): Edge[] {
       const spec = ref.fileName;
       let to: string;
       if (spec.startsWith('.')) {
-        const hit = resolveRelative(file, spec);
+        // A Vite query (`./example.py?raw`) names the same file.
+        const hit = resolveRelative(file, spec.replace(/\?.*$/, ''));
         if (!hit) throw new Error(`${posix(relative(root, file))}: cannot resolve import '${spec}'`);
         to = posix(relative(root, hit));
       } else {

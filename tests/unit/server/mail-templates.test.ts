@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { escapeHtml, invitationMail, passwordResetMail } from '../../../src/lib/server/mail/templates';
+import { escapeHtml, invitationMail, passwordResetMail, verifyEmailMail } from '../../../src/lib/server/mail/templates';
 
 describe('mail templates', () => {
   test('the invitation carries the link in both parts and escapes names in HTML', () => {
@@ -23,6 +23,27 @@ describe('mail templates', () => {
     expect(m.text).toContain('https://armilla.example/reset/t0k');
     expect(m.text).toContain('60 minutes');
     expect(m.html).toContain('https://armilla.example/reset/t0k');
+  });
+
+  test('names chosen by users stay out of every subject and reach the body as one bounded line (issue 17, finding 6)', () => {
+    // A display name written to pass for the service's own words, with a header-like second line and padding.
+    const hostile = 'URGENT: your mailbox is full, visit https://mbx.example/fix\r\nBcc: someone@victim.example\n' + 'x'.repeat(400);
+    const url = 'https://armilla.example/t/abc';
+    const mails = [
+      invitationMail({ teamName: hostile, inviterName: hostile, role: 'viewer', url, expiresAt: new Date('2026-03-27T12:00:00Z') }),
+      passwordResetMail({ name: hostile, url, validMinutes: 60 }),
+      verifyEmailMail({ name: hostile, url, validHours: 48 }),
+    ];
+    for (const m of mails) {
+      expect(m.subject).not.toMatch(/URGENT|visit|mbx\.example|[\r\n]/);
+      expect(m.subject.length).toBeLessThan(60);
+      for (const part of [m.text, m.html]) {
+        expect(part).not.toMatch(/^\s*Bcc:/m); // the name's second line never becomes a line of its own
+        expect(part).not.toContain('x'.repeat(60));
+      }
+      const line = m.text.split('\n').find((l) => l.includes('URGENT'))!;
+      expect(line).toContain('https://mbx.example/fix…');
+    }
   });
 
   test('escapeHtml covers the five HTML-significant characters (common practice, OWASP XSS cheat sheet)', () => {

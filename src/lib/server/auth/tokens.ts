@@ -125,14 +125,5 @@ export async function authenticateBearer(token: string, address: string, now = D
   return { user: { id: row.userId, email: row.email, name: row.name }, token: { id: row.id, scope: row.scope } };
 }
 
-/** Routes that only a signed-in browser session may use: minting tokens with a token, password and session changes. */
-export function sessionOnly(pathname: string): boolean {
-  return pathname === '/api/tokens' || pathname.startsWith('/api/tokens/') || pathname.startsWith('/api/auth/');
-}
-
-/** What a read token may do: read, and ask the compute API (a POST that changes nothing). */
-export function scopeAllows(scope: TokenScope, method: string, pathname: string): boolean {
-  if (scope === 'write') return true;
-  if (method === 'GET' || method === 'HEAD' || method === 'OPTIONS') return true;
-  return method === 'POST' && pathname === '/api/sky/windows';
-}
+/** Where a token may go and what its scope allows: one pure definition (contracts/token-access.ts). */
+export { scopeAllows, sessionOnly, tokenReachable } from '../../contracts/token-access';

@@ -9,8 +9,9 @@
  * - A job's time budget starts when a thread takes it; past it the thread is terminated (piscina respawns
  *   one) and the request answers 422 `compute_budget`.
  * - A job that runs a worker out of its heap (`memoryMb`) answers 413 `too_large`.
- * - The built server always uses worker threads (dist/server/compute-worker.mjs, written by the build); a
- *   missing worker file there is a deployment error. Only dev and unit tests (no file) run jobs in-process.
+ * - The built server uses worker threads (dist/server/compute-worker.mjs, written by the build); a missing
+ *   worker file there is a deployment error. Dev and unit tests (no file) run jobs in-process, and so does
+ *   `COMPUTE_THREADS=0` (for measuring the pool against the event loop: no budget, no queue, see README).
  */
 import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
@@ -25,7 +26,7 @@ export type { ComputeInput, ComputeKind, ComputeOutput } from './jobs';
 export const WORKER_FILE = 'compute-worker.mjs';
 
 export interface ComputeConfig {
-  /** Worker threads (`COMPUTE_THREADS`; default: cores − 1, at least 1, at most 4). */
+  /** Worker threads (`COMPUTE_THREADS`; default: cores − 1, at least 1, at most 4; 0 = in-process). */
   threads: number;
   /** Jobs that may wait for a thread (`COMPUTE_QUEUE`; default 8 a thread). */
   maxQueue: number;
@@ -37,7 +38,7 @@ export interface ComputeConfig {
   memoryMb: number;
   /** Jobs one caller (`opts.caller`) may have running or queued at once (`COMPUTE_PER_CALLER`; default 1). */
   perCaller: number;
-  /** The worker module; null runs jobs in-process (dev and unit tests only). */
+  /** The worker module; null runs jobs in-process (dev, unit tests and `COMPUTE_THREADS=0`). */
   workerFile: string | null;
 }
 
@@ -77,15 +78,15 @@ export function findWorkerFile(from = import.meta.url): string | null {
 }
 
 export function computeConfig(): ComputeConfig {
-  const threads = envInt('COMPUTE_THREADS', Math.max(1, Math.min(4, availableParallelism() - 1)), 1, 64);
+  const threads = envInt('COMPUTE_THREADS', Math.max(1, Math.min(4, availableParallelism() - 1)), 0, 64);
   return {
     threads,
-    maxQueue: envInt('COMPUTE_QUEUE', threads * 8, 0, 10_000),
+    maxQueue: envInt('COMPUTE_QUEUE', Math.max(1, threads) * 8, 0, 10_000),
     queueWaitMs: envInt('COMPUTE_QUEUE_WAIT_MS', 5_000, 1, 600_000),
     budgetMs: envInt('COMPUTE_BUDGET_MS', 10_000, 1, 600_000),
     memoryMb: envInt('COMPUTE_MEMORY_MB', 512, 32, 16_384),
     perCaller: envInt('COMPUTE_PER_CALLER', 1, 1, 1_000),
-    workerFile: findWorkerFile(),
+    workerFile: threads === 0 ? null : findWorkerFile(),
   };
 }
 
@@ -175,7 +176,9 @@ export class ComputePool {
   }
 
   private async runQueued<K extends ComputeKind>(kind: K, input: ComputeInput<K>, opts: ComputeOptions): Promise<ComputeOutput<K>> {
-    await this.slot();
+    // COMPUTE_THREADS=0: a job runs on the event loop at once, as before the pool existed (no queue).
+    if (this.config.threads === 0) this.running++;
+    else await this.slot();
     const budgetMs = opts.budgetMs ?? this.config.budgetMs;
     const t0 = performance.now();
     try {
@@ -240,7 +243,7 @@ export class ComputePool {
   /** Seconds until a slot is likely free: the queue ahead times the mean run, at least 1. */
   private retryAfterSec(): number {
     const mean = this.s.completed ? this.s.runMs / this.s.completed : 1000;
-    return Math.max(1, Math.min(60, Math.ceil(((this.queue.length + 1) * mean) / this.config.threads / 1000)));
+    return Math.max(1, Math.min(60, Math.ceil(((this.queue.length + 1) * mean) / Math.max(1, this.config.threads) / 1000)));
   }
 
   private async exec<K extends ComputeKind>(kind: K, input: ComputeInput<K>, budgetMs: number): Promise<ComputeOutput<K>> {
@@ -273,7 +276,7 @@ export function computePool(): ComputePool {
   const g = globalThis as G;
   if (!g[KEY]) {
     const config = computeConfig();
-    if (!config.workerFile && import.meta.env.PROD) {
+    if (!config.workerFile && config.threads > 0 && import.meta.env.PROD) {
       throw new Error(`compute pool: ${WORKER_FILE} not found beside the server bundle; the build writes it (src/lib/server/compute/build.mjs)`);
     }
     g[KEY] = new ComputePool(config);

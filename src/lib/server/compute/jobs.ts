@@ -13,6 +13,7 @@ import { readSceneImportBytes } from '../../exports/scene-import';
 import { checkPng } from '../png-check';
 import type { SceneOut } from '../../contracts/scene';
 import { nightData, type NightInput } from '../../sky/night';
+import { encodeJson, type Encoding } from './encode';
 
 export const jobs = {
   /** POST /api/sky/windows: a validated body → the response body. */
@@ -23,6 +24,8 @@ export const jobs = {
   windowsCsv: (input: { scene: SceneOut; from: Date; to: Date; stepSec?: number }) => windowsCsv(input.scene, input.from, input.to, { stepSec: input.stepSec }),
   /** GET /api/scenes/:id/night and the night charts: Sun, Moon, per-target samples, windows and best moment over a span ≤ 36 h. */
   night: (input: NightInput) => nightData(input),
+  /** The same answer as the API sends it: JSON, compressed for the client here rather than on the event loop. */
+  nightEncoded: (input: { night: NightInput; encoding: Encoding | null }) => encodeJson(nightData(input.night), input.encoding),
   /** The printable handout's model (chart, events, targets) of a scene. */
   handout: (input: { scene: SceneOut }) => buildHandout(input.scene),
   /** An uploaded thumbnail: declared size bounded, image data inflated with a cap (see png-check.ts). */

@@ -18,6 +18,11 @@ const csvHeaders = (filename: string) => ({
   'cache-control': 'no-store',
 });
 
+/** `?time=` of the positions export (default: the scene's time). */
+export const positionsQuerySchema = z.object({ time: isoUtc.optional() });
+/** `?from=&to=` of the windows export (default: 24 h from the scene's time). */
+export const windowsCsvQuerySchema = z.object({ from: isoUtc.optional(), to: isoUtc.optional() });
+
 /** Whom the work of an export is charged to: a member's account, or a link holder's address. */
 export interface WorkPayer {
   key: string;
@@ -25,7 +30,7 @@ export interface WorkPayer {
 }
 
 export async function positionsResponse(scene: SceneOut, url: URL, payer: WorkPayer): Promise<Response> {
-  const q = parseQuery(z.object({ time: isoUtc.optional() }), url);
+  const q = parseQuery(positionsQuerySchema, url);
   const at = new Date(q.time ?? scene.time);
   const stamp = at.toISOString().slice(0, 16).replace(/[:]/g, '');
   await chargeWork(
@@ -39,7 +44,7 @@ export async function positionsResponse(scene: SceneOut, url: URL, payer: WorkPa
 }
 
 export async function windowsResponse(scene: SceneOut, url: URL, payer: WorkPayer): Promise<Response> {
-  const q = parseQuery(z.object({ from: isoUtc.optional(), to: isoUtc.optional() }), url);
+  const q = parseQuery(windowsCsvQuerySchema, url);
   const from = new Date(q.from ?? scene.time);
   const to = q.to ? new Date(q.to) : new Date(from.getTime() + 86400000);
   if (!(to.getTime() > from.getTime())) throw new HttpError(400, 'invalid', 'to: must be after from', 'to');

@@ -72,8 +72,9 @@ ${button(p.url, 'Accept the invitation')}
 
 export function passwordResetMail(p: { name: string; url: string; validMinutes: number }): RenderedMail {
   const subject = 'Reset your Armilla password';
+  const name = oneLine(p.name, 60);
   const text = [
-    `Hello ${p.name},`,
+    `Hello ${name},`,
     '',
     'Someone asked to reset the password of your Armilla account. Choose a new password here:',
     p.url,
@@ -84,7 +85,7 @@ export function passwordResetMail(p: { name: string; url: string; validMinutes: 
   const html = shell(
     subject,
     `<h1 style="font-size:20px;margin:0 0 12px;">Reset your password</h1>
-<p>Hello ${escapeHtml(p.name)},</p>
+<p>Hello ${escapeHtml(name)},</p>
 <p>Someone asked to reset the password of your Armilla account.</p>
 ${button(p.url, 'Choose a new password')}
 <p>The link works once and for ${p.validMinutes} minutes. Setting a new password signs you out everywhere else.

@@ -1,16 +1,13 @@
-import { z } from 'zod';
 import { db } from '../../../lib/server/db';
 import { json, parseJson, parseQuery, route } from '../../../lib/server/http';
 import { requireUser } from '../../../lib/server/policy';
-import { sceneCreateSchema } from '../../../lib/contracts/scene';
+import { sceneCreateSchema, sceneListQuerySchema } from '../../../lib/contracts/scene';
 import { createScene, listScenes } from '../../../lib/server/scene-service';
-
-const listQuery = z.object({ teamId: z.string().min(1).max(64).optional() });
 
 /** Scenes of the caller's teams (optionally one team), newest change first. */
 export const GET = route(async ({ locals, url }) => {
   const user = requireUser(locals);
-  const q = parseQuery(listQuery, url);
+  const q = parseQuery(sceneListQuerySchema, url);
   return json({ scenes: await listScenes(db, user.id, q.teamId) });
 });
 

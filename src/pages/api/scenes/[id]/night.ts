@@ -4,14 +4,14 @@
  * `from`, `to` (ISO UTC; default the scene's night), `step` (minutes 1–30, default 5), `bodies`.
  */
 import { db } from '../../../../lib/server/db';
-import { json, parseQuery, route } from '../../../../lib/server/http';
+import { parseQuery, route } from '../../../../lib/server/http';
 import { requireUser } from '../../../../lib/server/policy';
 import { sceneForMember } from '../../../../lib/server/exports/vo-targets';
 import { nightQuerySchema } from '../../../../lib/night/query';
-import { nightAnswer } from '../../../../lib/server/night';
+import { nightResponse } from '../../../../lib/server/night';
 
-export const GET = route(async ({ locals, params, url }) => {
+export const GET = route(async ({ locals, params, url, request }) => {
   const user = requireUser(locals);
   const q = parseQuery(nightQuerySchema, url);
-  return json(await nightAnswer(await sceneForMember(db, user, params.id!), q, { key: `user:${user.id}`, who: 'member' }));
+  return nightResponse(request, await sceneForMember(db, user, params.id!), q, { key: `user:${user.id}`, who: 'member' });
 });

@@ -1,17 +1,10 @@
-import { z } from 'zod';
 import { and, desc, eq, lt } from 'drizzle-orm';
 import { db } from '../../../../lib/server/db';
 import { auditLog, users } from '../../../../lib/server/db/schema';
 import { json, parseQuery, route } from '../../../../lib/server/http';
 import { authorize, requireUser } from '../../../../lib/server/policy';
 import { can } from '../../../../lib/contracts/roles';
-import { isoUtc } from '../../../../lib/contracts/scene-doc';
-
-const query = z.object({
-  limit: z.coerce.number().int().min(1).max(200).default(50),
-  /** Page back: entries strictly before this instant. */
-  before: isoUtc.optional(),
-});
+import { activityQuerySchema } from '../../../../lib/contracts/team';
 
 function withoutEmail(detail: Record<string, unknown>): Record<string, unknown> {
   const { email: _email, ...rest } = detail;
@@ -25,7 +18,7 @@ export const GET = route(async ({ locals, params, url }) => {
   // Invited addresses are shown to those who may see the invitations themselves (GET …/invitations):
   // for everyone else the activity says that someone was invited, not who (issue 17 finding 10).
   const seesInvitees = can(role, 'team.manage');
-  const q = parseQuery(query, url);
+  const q = parseQuery(activityQuerySchema, url);
   const rows = await db
     .select({
       id: auditLog.id,
