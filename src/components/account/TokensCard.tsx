@@ -3,10 +3,11 @@
  * revoke. The secret is shown once, right after it is made. A token acts as you, within your role in
  * each team; read tokens can only read.
  */
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import type { TokenOut, TokenScope } from '../../lib/contracts/tokens';
-import { apiDelete, apiGet, apiPost, errorText } from '../../lib/client/api';
+import { apiDelete, apiPost, errorText } from '../../lib/client/api';
+import { keys, useTokens } from '../../lib/client/queries';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
 import { Card } from '../ui/Card';
@@ -18,7 +19,7 @@ const when = (iso: string | null) => (iso ? new Date(iso).toISOString().slice(0,
 function Tokens() {
   const id = useId();
   const qc = useQueryClient();
-  const list = useQuery({ queryKey: ['tokens'], queryFn: () => apiGet<{ tokens: TokenOut[] }>('/api/tokens') });
+  const list = useTokens();
   const [name, setName] = useState('');
   const [scope, setScope] = useState<TokenScope>('read');
   const [made, setMade] = useState<{ name: string; token: string } | null>(null);
@@ -28,13 +29,13 @@ function Tokens() {
     onSuccess: (r) => {
       setMade({ name: r.name, token: r.token });
       setName('');
-      void qc.invalidateQueries({ queryKey: ['tokens'] });
+      void qc.invalidateQueries({ queryKey: keys.tokens() });
     },
     onError: (e) => setErr(errorText(e)),
   });
   const revoke = useMutation({
     mutationFn: (tokenId: string) => apiDelete(`/api/tokens/${tokenId}`),
-    onSuccess: () => void qc.invalidateQueries({ queryKey: ['tokens'] }),
+    onSuccess: () => void qc.invalidateQueries({ queryKey: keys.tokens() }),
     onError: (e) => setErr(errorText(e)),
   });
   return (

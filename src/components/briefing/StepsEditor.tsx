@@ -4,7 +4,7 @@ import type { Pin, Step } from '../../lib/contracts/scene-doc';
 import type { SceneOut } from '../../lib/contracts/scene';
 import { inputUtcToIso, isoToInputUtc, moveItem, newId, formatInZone } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from '../scenes/controls';
+import { INPUT, LABEL, Labelled } from '../scenes/controls';
 import { Markdown, MarkdownText } from './Markdown';
 
 function StepForm({ step, pins, onSave, onCancel, scene }: { step: Step; pins: Pin[]; onSave: (s: Step) => void; onCancel: () => void; scene: SceneOut }) {
@@ -24,18 +24,12 @@ function StepForm({ step, pins, onSave, onCancel, scene }: { step: Step; pins: P
         onSave({ ...s, time: iso });
       }}
     >
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-title`} className={LABEL}>
-          Step title
-        </label>
+      <Labelled id={`${id}-title`} label="Step title">
         <input id={`${id}-title`} className={INPUT} value={s.title} maxLength={120} onChange={(e) => setS({ ...s, title: e.target.value })} />
-      </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-time`} className={LABEL}>
-          Instant (UTC)
-        </label>
+      </Labelled>
+      <Labelled id={`${id}-time`} label="Instant (UTC)">
         <input id={`${id}-time`} type="datetime-local" className={INPUT} value={time} onChange={(e) => setTime(e.target.value)} />
-      </div>
+      </Labelled>
       <div className="flex flex-col gap-1">
         <div className="flex items-center justify-between">
           <label htmlFor={`${id}-cap`} className={LABEL}>
@@ -53,10 +47,7 @@ function StepForm({ step, pins, onSave, onCancel, scene }: { step: Step; pins: P
           <textarea id={`${id}-cap`} className={`${INPUT} min-h-24`} value={s.caption} onChange={(e) => setS({ ...s, caption: e.target.value })} />
         )}
       </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-pin`} className={LABEL}>
-          Focus on a pin
-        </label>
+      <Labelled id={`${id}-pin`} label="Focus on a pin">
         <select id={`${id}-pin`} className={INPUT} value={s.pinId ?? ''} onChange={(e) => setS({ ...s, pinId: e.target.value || null })}>
           <option value="">None</option>
           {pins.map((p, i) => (
@@ -65,7 +56,7 @@ function StepForm({ step, pins, onSave, onCancel, scene }: { step: Step; pins: P
             </option>
           ))}
         </select>
-      </div>
+      </Labelled>
       <p className="text-xs text-ink-300">
         Camera: {s.camera?.mode ?? 'scene'} view{s.camera?.azDeg !== undefined ? `, az ${s.camera.azDeg.toFixed(0)}°, alt ${(s.camera.altDeg ?? 0).toFixed(0)}°` : ''}.{' '}
         <button type="button" className="text-brass-300 underline" onClick={() => { setS({ ...s, camera: { ...scene.camera }, layers: { ...scene.layers } }); setTime(isoToInputUtc(scene.time)); }}>

@@ -7,7 +7,7 @@ import { envelopeSchema } from '../../lib/contracts/envelope';
 import type { SceneOut } from '../../lib/contracts/scene';
 import { formatInZone, inputUtcToIso, isoToInputUtc } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL, NumberField, Section } from './controls';
+import { INPUT, LABEL, Labelled, NumberField, Section } from './controls';
 import { TargetsEditor } from './TargetsEditor';
 import { HorizonImport, SkylineProfile } from './HorizonImport';
 
@@ -47,10 +47,7 @@ function SiteSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; r
       {!readOnly && (
         <>
           {(sites.data?.sites.length ?? 0) > 0 && (
-            <div className="flex flex-col gap-1">
-              <label htmlFor={`${id}-team`} className={LABEL}>
-                Use a team site
-              </label>
+            <Labelled id={`${id}-team`} label="Use a team site">
               <select
                 id={`${id}-team`}
                 className={INPUT}
@@ -67,7 +64,7 @@ function SiteSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; r
                   </option>
                 ))}
               </select>
-            </div>
+            </Labelled>
           )}
           <SiteForm key={JSON.stringify(s)} value={s} onApply={(site) => edit({ site })} />
         </>
@@ -92,10 +89,7 @@ function TimeSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; r
     if (iso !== scene.time) edit({ time: iso });
   };
   return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={`${id}-t`} className={LABEL}>
-        Instant (UTC)
-      </label>
+    <Labelled id={`${id}-t`} label="Instant (UTC)">
       <div className="flex gap-2">
         <input id={`${id}-t`} type="datetime-local" className={INPUT} value={v} readOnly={readOnly} aria-invalid={err ? true : undefined} onChange={(e) => setV(e.target.value)} onBlur={(e) => !readOnly && commit(e.target.value)} onKeyDown={(e) => e.key === 'Enter' && commit(v)} />
         {!readOnly && (
@@ -106,7 +100,7 @@ function TimeSection({ scene, edit, readOnly }: { scene: SceneOut; edit: Edit; r
       </div>
       <p className="text-xs text-ink-300">At the site: {formatInZone(scene.time, scene.site.timeZone ?? 'UTC')}</p>
       {err && <p className="text-xs text-danger-300">{err}</p>}
-    </div>
+    </Labelled>
   );
 }
 
@@ -134,15 +128,12 @@ function CameraSection({ camera, edit, readOnly }: { camera: Camera; edit: (c: C
   };
   return (
     <div className="grid grid-cols-2 gap-2">
-      <div className="col-span-2 flex flex-col gap-1">
-        <label htmlFor={`${id}-mode`} className={LABEL}>
-          View
-        </label>
+      <Labelled id={`${id}-mode`} label="View" className="col-span-2">
         <select id={`${id}-mode`} className={INPUT} value={camera.mode} disabled={readOnly} onChange={(e) => set({ mode: e.target.value as Camera['mode'] })}>
           <option value="observer">Observer view</option>
           <option value="sphere">Sphere view</option>
         </select>
-      </div>
+      </Labelled>
       <NumberField label="Azimuth" suffix="°" value={camera.azDeg} min={0} max={360} onCommit={(n) => !readOnly && n !== undefined && set({ azDeg: n })} />
       <NumberField label="Altitude" suffix="°" value={camera.altDeg} min={-90} max={90} onCommit={(n) => !readOnly && n !== undefined && set({ altDeg: n })} />
       <NumberField label="Field of view" suffix="°" value={camera.fovDeg} min={5} max={150} onCommit={(n) => !readOnly && n !== undefined && set({ fovDeg: n })} />
@@ -179,10 +170,7 @@ function EnvelopeSection({ scene, edit, readOnly, sync }: { scene: SceneOut; edi
   const envs = list.data?.envelopes ?? [];
   return (
     <div className="flex flex-col gap-2">
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-src`} className={LABEL}>
-          Pointing envelope
-        </label>
+      <Labelled id={`${id}-src`} label="Pointing envelope">
         <select
           id={`${id}-src`}
           className={INPUT}
@@ -207,18 +195,15 @@ function EnvelopeSection({ scene, edit, readOnly, sync }: { scene: SceneOut; edi
           {scene.envelopeId && !envs.some((e) => e.id === scene.envelopeId) && <option value={`team:${scene.envelopeId}`}>Team: {scene.envelope?.name ?? scene.envelopeId}</option>}
           <option value="inline">Inline (this scene only)</option>
         </select>
-      </div>
+      </Labelled>
       {mode === 'team' && <p className="text-xs text-ink-300">Shared with the team: changes to it show in every scene that uses it.</p>}
       {mode !== 'none' && (
         <div className="grid grid-cols-2 gap-2">
           {mode === 'inline' && !readOnly ? (
             <>
-              <div className="col-span-2 flex flex-col gap-1">
-                <label htmlFor={`${id}-name`} className={LABEL}>
-                  Envelope name
-                </label>
+              <Labelled id={`${id}-name`} label="Envelope name" className="col-span-2">
                 <input id={`${id}-name`} className={INPUT} defaultValue={String(env.name ?? '')} onBlur={(e) => e.target.value !== env.name && setInline({ name: e.target.value })} />
-              </div>
+              </Labelled>
               {ENV_NUMBERS.map(([k, label, min, max]) => (
                 <NumberField key={k} label={label} suffix="°" value={env[k] as number | undefined} min={min} max={max} onCommit={(n) => setInline({ [k]: n })} />
               ))}
@@ -311,18 +296,12 @@ export function EditorPanel(props: { scene: SceneOut; edit: Edit; readOnly: bool
   return (
     <div className="flex flex-col gap-3">
       {readOnly && <p className="rounded-md border border-ink-700 px-3 py-2 text-sm text-ink-300">Read-only: your role can look and comment, not edit.</p>}
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-title`} className={LABEL}>
-          Title
-        </label>
+      <Labelled id={`${id}-title`} label="Title">
         <TitleInput id={`${id}-title`} value={scene.title} readOnly={readOnly} onCommit={(title) => edit({ title })} />
-      </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-desc`} className={LABEL}>
-          Description
-        </label>
+      </Labelled>
+      <Labelled id={`${id}-desc`} label="Description">
         <textarea id={`${id}-desc`} className={`${INPUT} min-h-20`} value={scene.description} readOnly={readOnly} onChange={(e) => edit({ description: e.target.value })} />
-      </div>
+      </Labelled>
       <Section title="Site" defaultOpen={false}>
         <SiteSection scene={scene} edit={edit} readOnly={readOnly} />
       </Section>

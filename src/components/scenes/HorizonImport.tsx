@@ -10,7 +10,7 @@ import { HORIZON_CONVENTIONS, parseHorizonCsv, type HorizonConvention } from '..
 import { AZIMUTH_TICKS, elevationRange, skylinePath, type MaskPoint } from '../../lib/client/skyline';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { INPUT, LABEL } from './controls';
+import { FileInput, INPUT, LABEL, Labelled } from './controls';
 import { postFile } from './TargetsImport';
 
 const MAX_HORIZON_BYTES = 1024 * 1024;
@@ -158,10 +158,7 @@ export function HorizonImport({
             One line per point, <code>azimuth,elevation</code> in degrees (a header line is optional). Elevation is the apparent altitude of the skyline. Between points the mask is
             interpolated linearly and wraps at 360°. {envelopeId ? 'Importing replaces the envelope’s whole mask, in every scene that uses it.' : 'The mask becomes part of this scene’s inline envelope.'}
           </p>
-          <div className="flex flex-col gap-1">
-            <label htmlFor={`${id}-conv`} className={LABEL}>
-              Azimuth in the file is measured
-            </label>
+          <Labelled id={`${id}-conv`} label="Azimuth in the file is measured">
             <select id={`${id}-conv`} className={INPUT} value={convention} onChange={(e) => setConvention(e.target.value as HorizonConvention)}>
               {HORIZON_CONVENTIONS.map((c) => (
                 <option key={c} value={c}>
@@ -169,22 +166,11 @@ export function HorizonImport({
                 </option>
               ))}
             </select>
-          </div>
+          </Labelled>
           <label htmlFor={`${id}-file`} className={LABEL}>
             Horizon mask file
           </label>
-          <input
-            ref={input}
-            id={`${id}-file`}
-            type="file"
-            accept=".csv,text/csv,text/plain"
-            aria-describedby={`${id}-help`}
-            className="text-sm text-ink-100 file:mr-3 file:rounded-md file:border file:border-ink-500 file:bg-transparent file:px-3 file:py-1 file:text-ink-100 hover:file:border-brass-300"
-            onChange={(e) => {
-              const f = e.target.files?.[0];
-              if (f) void choose(f);
-            }}
-          />
+          <FileInput ref={input} id={`${id}-file`} accept=".csv,text/csv,text/plain" aria-describedby={`${id}-help`} onFile={(f) => f && void choose(f)} />
           {parsed && 'fileError' in parsed && <Alert tone="error">{parsed.fileError}</Alert>}
           {parsed && !('fileError' in parsed) && parsed.errors.length > 0 && (
             <Alert tone="error">

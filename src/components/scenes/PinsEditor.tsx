@@ -3,7 +3,7 @@ import { useId } from 'react';
 import type { Pin } from '../../lib/contracts/scene-doc';
 import { MIN_POINTS, newId } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from './controls';
+import { INPUT, Labelled } from './controls';
 
 export interface PinDraft {
   kind: Pin['kind'];
@@ -95,33 +95,24 @@ export function PinsEditor(props: {
           <fieldset className="flex flex-col gap-2 rounded border border-brass-500/60 p-2" aria-describedby={`${id}-help`}>
             <legend className="px-1 text-sm font-medium text-brass-200">New pin</legend>
             <div className="grid grid-cols-2 gap-2">
-              <div className="flex flex-col gap-1">
-                <label htmlFor={`${id}-kind`} className={LABEL}>
-                  Kind
-                </label>
+              <Labelled id={`${id}-kind`} label="Kind">
                 <select id={`${id}-kind`} className={INPUT} value={draft.kind} onChange={(e) => setDraft({ ...draft, kind: e.target.value as Pin['kind'], points: [] })}>
                   <option value="label">Label</option>
                   <option value="arrow">Arrow</option>
                   <option value="arc">Arc</option>
                   <option value="region">Region</option>
                 </select>
-              </div>
-              <div className="flex flex-col gap-1">
-                <label htmlFor={`${id}-frame`} className={LABEL}>
-                  Frame
-                </label>
+              </Labelled>
+              <Labelled id={`${id}-frame`} label="Frame">
                 <select id={`${id}-frame`} className={INPUT} value={draft.frame} onChange={(e) => setDraft({ ...draft, frame: e.target.value as Pin['frame'], points: [] })}>
                   <option value="horizontal">Horizontal (stays on the landscape)</option>
                   <option value="equatorial">Equatorial (turns with the sky)</option>
                 </select>
-              </div>
+              </Labelled>
             </div>
-            <div className="flex flex-col gap-1">
-              <label htmlFor={`${id}-label`} className={LABEL}>
-                Label
-              </label>
+            <Labelled id={`${id}-label`} label="Label">
               <input id={`${id}-label`} className={INPUT} value={draft.label} maxLength={200} onChange={(e) => setDraft({ ...draft, label: e.target.value })} />
-            </div>
+            </Labelled>
             <p id={`${id}-help`} className="text-xs text-brass-200" aria-live="polite">
               Click on the sky to place it ({KIND_HELP[draft.kind]}). {draft.points.length} of at least {MIN_POINTS[draft.kind]} placed
               {draft.points.length ? `; last: ${fmtPoint(draft.points[draft.points.length - 1]!, draft.frame)}` : ''}.

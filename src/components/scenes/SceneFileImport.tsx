@@ -4,7 +4,7 @@ import { errorText, readError } from '../../lib/client/api';
 import type { SceneOut } from '../../lib/contracts/scene';
 import { Alert } from '../ui/Alert';
 import { Button } from '../ui/Button';
-import { LABEL } from './controls';
+import { FileInput, Labelled } from './controls';
 import { postFile, tooBigText, MAX_UPLOAD_BYTES } from './TargetsImport';
 
 export function SceneFileImport({ teamId, teamName }: { teamId: string; teamName: string }) {
@@ -38,22 +38,17 @@ export function SceneFileImport({ teamId, teamName }: { teamId: string; teamName
       <p id={`${id}-help`} className="text-sm text-ink-300">
         A scene file saved with “Scene file (JSON)” from a scene’s Export &amp; print section becomes a new scene{teamName ? ` in ${teamName}` : ''}. Its comments and share links are not part of the file.
       </p>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-file`} className={LABEL}>
-          Scene file
-        </label>
-        <input
+      <Labelled id={`${id}-file`} label="Scene file">
+        <FileInput
           id={`${id}-file`}
-          type="file"
           accept=".json,application/json"
           aria-describedby={`${id}-help`}
-          className="text-sm text-ink-100 file:mr-3 file:rounded-md file:border file:border-ink-500 file:bg-transparent file:px-3 file:py-1 file:text-ink-100 hover:file:border-brass-300"
-          onChange={(e) => {
+          onFile={(f) => {
             setErr(null);
-            setFile(e.target.files?.[0] ?? null);
+            setFile(f);
           }}
         />
-      </div>
+      </Labelled>
       {err && <Alert tone="error">{err}</Alert>}
       <div>
         <Button variant="secondary" onClick={() => void submit()} disabled={!file} busy={busy}>

@@ -10,7 +10,7 @@ import type { SceneOut } from '../../lib/contracts/scene';
 import { inputUtcToIso } from '../../lib/client/scene-view';
 import type { Site } from '../../lib/contracts/scene-doc';
 import { SiteForm } from './EditorPanel';
-import { INPUT, LABEL } from './controls';
+import { INPUT, LABEL, Labelled } from './controls';
 import { SceneFileImport } from './SceneFileImport';
 import { useKeepEarlyInput } from '../ui/early-input';
 
@@ -85,10 +85,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
       }}
     >
       {teams.length > 1 && (
-        <div className="flex flex-col gap-1">
-          <label htmlFor={`${id}-team`} className={LABEL}>
-            Team
-          </label>
+        <Labelled id={`${id}-team`} label="Team">
           <select id={`${id}-team`} name="teamId" className={INPUT} value={teamId} onChange={(e) => setTeamId(e.target.value)}>
             {teams.map((t) => (
               <option key={t.id} value={t.id}>
@@ -96,7 +93,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
               </option>
             ))}
           </select>
-        </div>
+        </Labelled>
       )}
       <fieldset className="flex flex-col gap-2">
         <legend className={`${LABEL} mb-1`}>Start from</legend>
@@ -113,25 +110,16 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
           </label>
         ))}
       </fieldset>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-title`} className={LABEL}>
-          Title{mode === 'copy' ? ' (optional: defaults to the copied title)' : ''}
-        </label>
+      <Labelled id={`${id}-title`} label={<>Title{mode === 'copy' ? ' (optional: defaults to the copied title)' : ''}</>}>
         <input id={`${id}-title`} name="title" className={INPUT} value={title} maxLength={200} onChange={(e) => setTitle(e.target.value)} />
-      </div>
+      </Labelled>
       {mode !== 'copy' && (
-        <div className="flex flex-col gap-1">
-          <label htmlFor={`${id}-time`} className={LABEL}>
-            Instant (UTC)
-          </label>
+        <Labelled id={`${id}-time`} label="Instant (UTC)">
           <input id={`${id}-time`} name="time" type="datetime-local" className={INPUT} value={time} onChange={(e) => setTime(e.target.value)} />
-        </div>
+        </Labelled>
       )}
       {mode === 'site' && (
-        <div className="flex flex-col gap-1">
-          <label htmlFor={`${id}-site`} className={LABEL}>
-            Site
-          </label>
+        <Labelled id={`${id}-site`} label="Site">
           <select id={`${id}-site`} name="siteId" className={INPUT} value={siteId} onChange={(e) => setSiteId(e.target.value)}>
             <option value="">Choose…</option>
             {(sites.data?.sites ?? []).map((s) => (
@@ -141,7 +129,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
             ))}
           </select>
           {sites.isError && <p className="text-xs text-danger-300">{errorText(sites.error)}</p>}
-        </div>
+        </Labelled>
       )}
       {mode === 'blank' && (
         <div className="rounded border border-ink-700 p-3">
@@ -150,10 +138,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
         </div>
       )}
       {mode === 'copy' && (
-        <div className="flex flex-col gap-1">
-          <label htmlFor={`${id}-copy`} className={LABEL}>
-            Scene to copy
-          </label>
+        <Labelled id={`${id}-copy`} label="Scene to copy">
           <select id={`${id}-copy`} name="fromSceneId" className={INPUT} value={copyOf} onChange={(e) => setCopyOf(e.target.value)}>
             <option value="">Choose…</option>
             {(scenes.data?.scenes ?? []).map((s) => (
@@ -162,7 +147,7 @@ function NewScene({ teams, initialTeamId, fromSceneId }: { teams: TeamLite[]; in
               </option>
             ))}
           </select>
-        </div>
+        </Labelled>
       )}
       {err && <Alert tone="error">{err}</Alert>}
       <div>

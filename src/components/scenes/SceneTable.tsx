@@ -10,7 +10,7 @@ import { Button } from '../ui/Button';
 import { errorText } from '../../lib/client/api';
 import { timeAgo } from '../../lib/client/scene-view';
 import { filterScenes, type SortKey } from '../../lib/client/scene-list';
-import { INPUT, LABEL } from './controls';
+import { INPUT, Labelled } from './controls';
 
 const PAGE = 10;
 
@@ -107,30 +107,21 @@ function Table({ teamId, canCreate }: { teamId: string; canCreate: boolean }) {
     <div className="flex flex-col gap-6">
       <div className="flex flex-col gap-3">
         <div className="flex flex-wrap items-end gap-3">
-          <div className="flex min-w-48 flex-1 flex-col gap-1">
-            <label htmlFor={`${id}-q`} className={LABEL}>
-              Search
-            </label>
+          <Labelled id={`${id}-q`} label="Search" className="min-w-48 flex-1">
             <input id={`${id}-q`} type="search" className={INPUT} value={search} placeholder="Title or description" onChange={(e) => { setSearch(e.target.value); setPage(0); }} />
-          </div>
+          </Labelled>
           {sites.length > 0 && (
-            <div className="flex flex-col gap-1">
-              <label htmlFor={`${id}-site`} className={LABEL}>
-                Site
-              </label>
+            <Labelled id={`${id}-site`} label="Site">
               <select id={`${id}-site`} className={INPUT} value={site} onChange={(e) => { setSite(e.target.value); setPage(0); }}>
                 <option value="">All sites</option>
                 {sites.map((s) => (
                   <option key={s}>{s}</option>
                 ))}
               </select>
-            </div>
+            </Labelled>
           )}
           {authors.length > 0 && (
-            <div className="flex flex-col gap-1">
-              <label htmlFor={`${id}-author`} className={LABEL}>
-                Author
-              </label>
+            <Labelled id={`${id}-author`} label="Author">
               <select id={`${id}-author`} className={INPUT} value={author} onChange={(e) => { setAuthor(e.target.value); setPage(0); }}>
                 <option value="">Everyone</option>
                 {authors.map((a) => (
@@ -139,12 +130,9 @@ function Table({ teamId, canCreate }: { teamId: string; canCreate: boolean }) {
                   </option>
                 ))}
               </select>
-            </div>
+            </Labelled>
           )}
-          <div className="flex flex-col gap-1">
-            <label htmlFor={`${id}-sort`} className={LABEL}>
-              Sort
-            </label>
+          <Labelled id={`${id}-sort`} label="Sort">
             <select id={`${id}-sort`} className={INPUT} value={sort} onChange={(e) => setSort(e.target.value as SortKey)}>
               <option value="updated-desc">Last changed first</option>
               <option value="updated-asc">Oldest change first</option>
@@ -152,7 +140,7 @@ function Table({ teamId, canCreate }: { teamId: string; canCreate: boolean }) {
               <option value="title-desc">Title Z–A</option>
               <option value="time-asc">Sky time, earliest first</option>
             </select>
-          </div>
+          </Labelled>
           {canCreate && (
             <a href={`/scenes/new?team=${encodeURIComponent(teamId)}`} className="rounded-md bg-brass-400 px-4 py-2 text-sm font-medium text-ink-950 hover:bg-brass-300">
               New scene

@@ -7,7 +7,7 @@ import type { LinkRole } from '../../lib/contracts/roles';
 import { inputUtcToIso, timeAgo } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { CopyButton, INPUT, LABEL } from './controls';
+import { CopyButton, INPUT, Labelled } from './controls';
 
 export const embedSnippet = (origin: string, token: string, title: string) =>
   `<iframe src="${origin}/embed/${encodeURIComponent(token)}" title="${title.replace(/[&<>"']/g, '')}" width="800" height="500" style="border:0" allow="fullscreen" loading="lazy"></iframe>`;
@@ -48,21 +48,15 @@ export function SharePanel({ sceneId, title }: { sceneId: string; title: string 
       >
         <h3 className="text-sm font-semibold">New link</h3>
         <div className="grid grid-cols-1 gap-2 sm:grid-cols-2">
-          <div className="flex flex-col gap-1">
-            <label htmlFor={`${id}-role`} className={LABEL}>
-              Role
-            </label>
+          <Labelled id={`${id}-role`} label="Role">
             <select id={`${id}-role`} className={INPUT} value={role} onChange={(e) => setRole(e.target.value as LinkRole)}>
               <option value="viewer">Viewer: watch only</option>
               <option value="reviewer">Reviewer: watch and comment</option>
             </select>
-          </div>
-          <div className="flex flex-col gap-1">
-            <label htmlFor={`${id}-exp`} className={LABEL}>
-              Expires (UTC, optional)
-            </label>
+          </Labelled>
+          <Labelled id={`${id}-exp`} label="Expires (UTC, optional)">
             <input id={`${id}-exp`} type="datetime-local" className={INPUT} value={expires} onChange={(e) => setExpires(e.target.value)} />
-          </div>
+          </Labelled>
         </div>
         {create.isError && <Alert tone="error">{errorText(create.error)}</Alert>}
         <Button type="submit" busy={create.isPending}>

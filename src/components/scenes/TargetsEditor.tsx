@@ -4,7 +4,7 @@ import { BODY_NAMES, type Target } from '../../lib/contracts/scene-doc';
 import { formatDecDms, formatRaHms, parseDec, parseRa } from '../../lib/imports/angles';
 import { newId } from '../../lib/client/scene-view';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from './controls';
+import { INPUT, Labelled } from './controls';
 import { TargetsImport } from './TargetsImport';
 
 /** What the CSV import needs: the scene, and how to sync with the server before and after. */
@@ -96,10 +96,7 @@ export function TargetsEditor({ targets, onChange, readOnly, importer }: { targe
       )}
       {!readOnly && (
         <>
-          <div className="flex flex-col gap-1">
-            <label htmlFor={`${id}-q`} className={LABEL}>
-              Find a star
-            </label>
+          <Labelled id={`${id}-q`} label="Find a star">
             <input id={`${id}-q`} className={INPUT} value={q} onChange={(e) => setQ(e.target.value)} placeholder="Proper name, HR number or designation (e.g. Vega, HR 7001, α Lyr)" aria-describedby={`${id}-qs`} />
             <p id={`${id}-qs`} className="sr-only" aria-live="polite">
               {loading ? 'Searching' : q ? `${hits.length} matches` : ''}
@@ -127,12 +124,9 @@ export function TargetsEditor({ targets, onChange, readOnly, importer }: { targe
                 ))}
               </ul>
             )}
-          </div>
+          </Labelled>
           <div className="flex items-end gap-2">
-            <div className="flex flex-1 flex-col gap-1">
-              <label htmlFor={`${id}-body`} className={LABEL}>
-                Solar-system body
-              </label>
+            <Labelled id={`${id}-body`} label="Solar-system body" className="flex-1">
               <select id={`${id}-body`} className={INPUT} value={body} onChange={(e) => setBody(e.target.value as typeof body)}>
                 {BODY_NAMES.map((b) => (
                   <option key={b} value={b}>
@@ -140,7 +134,7 @@ export function TargetsEditor({ targets, onChange, readOnly, importer }: { targe
                   </option>
                 ))}
               </select>
-            </div>
+            </Labelled>
             <Button variant="secondary" onClick={() => add({ id: newId('t'), kind: 'body', name: BODY_LABEL[body], body })}>
               Add body
             </Button>

@@ -7,7 +7,7 @@ import { errorText, readError, request } from '../../lib/client/api';
 import { formatDecDms, formatRaHms } from '../../lib/imports/angles';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
-import { LABEL } from './controls';
+import { FileInput, LABEL } from './controls';
 
 export const MAX_UPLOAD_BYTES = 5 * 1024 * 1024;
 
@@ -140,18 +140,7 @@ export function TargetsImport({ sceneId, beforeImport, onImported }: { sceneId: 
       <label htmlFor={`${id}-file`} className={LABEL}>
         Target list file
       </label>
-      <input
-        ref={input}
-        id={`${id}-file`}
-        type="file"
-        accept=".csv,text/csv"
-        aria-describedby={`${id}-help`}
-        className="text-sm text-ink-100 file:mr-3 file:rounded-md file:border file:border-ink-500 file:bg-transparent file:px-3 file:py-1 file:text-ink-100 hover:file:border-brass-300"
-        onChange={(e) => {
-          const f = e.target.files?.[0];
-          if (f) void check(f);
-        }}
-      />
+      <FileInput ref={input} id={`${id}-file`} accept=".csv,text/csv" aria-describedby={`${id}-help`} onFile={(f) => f && void check(f)} />
       {busy === 'preview' && (
         <p role="status" className="text-xs text-ink-300">
           Checking the file…

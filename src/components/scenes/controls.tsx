@@ -1,11 +1,31 @@
 /** Small pieces shared by the scene islands (on top of the ui primitives). */
-import { useEffect, useId, useState, type ReactNode } from 'react';
+import { useEffect, useId, useState, type ComponentProps, type ReactNode } from 'react';
 import { Button } from '../ui/Button';
 import type { SaveStatus } from '../../lib/client/autosave';
 
 export const INPUT =
   'w-full rounded-md border border-ink-700 bg-ink-950 px-3 py-2 text-sm text-ink-100 placeholder:text-ink-500 focus-visible:border-brass-300 aria-[invalid=true]:border-danger-300';
 export const LABEL = 'text-sm font-medium text-ink-100';
+
+const FILE_INPUT =
+  'text-sm text-ink-100 file:mr-3 file:rounded-md file:border file:border-ink-500 file:bg-transparent file:px-3 file:py-1 file:text-ink-100 hover:file:border-brass-300';
+
+/** The file chooser of the import forms: `onFile` gets the file chosen (null when the choice is cleared). */
+export function FileInput({ onFile, ...input }: Omit<ComponentProps<'input'>, 'type' | 'className' | 'onChange'> & { onFile: (f: File | null) => void }) {
+  return <input type="file" className={FILE_INPUT} onChange={(e) => onFile(e.target.files?.[0] ?? null)} {...input} />;
+}
+
+/** A form row of the editors: the label above its control (give the control the same `id`). */
+export function Labelled({ id, label, children, className }: { id: string; label: ReactNode; children: ReactNode; className?: string }) {
+  return (
+    <div className={className ? `flex flex-col gap-1 ${className}` : 'flex flex-col gap-1'}>
+      <label htmlFor={id} className={LABEL}>
+        {label}
+      </label>
+      {children}
+    </div>
+  );
+}
 
 export function Tabs<K extends string>({ tabs, current, onChange, label }: { tabs: { key: K; label: string; badge?: ReactNode }[]; current: K; onChange: (k: K) => void; label: string }) {
   const base = useId();

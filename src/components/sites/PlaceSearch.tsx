@@ -4,7 +4,7 @@
  */
 import { useEffect, useId, useRef, useState } from 'react';
 import { GEONAMES_CREDIT, type Place } from '../../lib/contracts/places';
-import { INPUT, LABEL } from '../scenes/controls';
+import { INPUT, Labelled } from '../scenes/controls';
 
 const DEBOUNCE_MS = 120;
 
@@ -76,10 +76,7 @@ export function PlaceSearch({ onPick, label = 'Find a town' }: { onPick: (p: Pla
 
   const listId = `${id}-list`;
   return (
-    <div className="relative flex flex-col gap-1">
-      <label htmlFor={`${id}-q`} className={LABEL}>
-        {label}
-      </label>
+    <Labelled id={`${id}-q`} label={<>{label}</>} className="relative">
       <input
         id={`${id}-q`}
         data-testid="place-search"
@@ -135,6 +132,6 @@ export function PlaceSearch({ onPick, label = 'Find a town' }: { onPick: (p: Pla
       )}
       {status === 'error' && <p className="text-xs text-danger-300">The place search did not answer; type the coordinates below.</p>}
       <GeoNamesCredit />
-    </div>
+    </Labelled>
   );
 }

@@ -8,7 +8,7 @@ import { useEffect, useId, useMemo, useRef, useState } from 'react';
 import { siteSchema, type Site } from '../../lib/contracts/scene-doc';
 import type { Place } from '../../lib/contracts/places';
 import { Button } from '../ui/Button';
-import { INPUT, LABEL } from '../scenes/controls';
+import { INPUT, LABEL, Labelled } from '../scenes/controls';
 import { PlaceSearch, placeLabel } from './PlaceSearch';
 import { useKeepEarlyInput } from '../ui/early-input';
 
@@ -152,10 +152,7 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
   };
 
   const field = (k: keyof typeof f, label: string, hint?: string) => (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={`${id}-${k}`} className={LABEL}>
-        {label}
-      </label>
+    <Labelled id={`${id}-${k}`} label={<>{label}</>}>
       <input
         id={`${id}-${k}`}
         name={k}
@@ -175,7 +172,7 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
           }
         }}
       />
-    </div>
+    </Labelled>
   );
 
   return (
@@ -196,10 +193,7 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
       <p id={`${id}-height-note`} className="text-xs text-ink-300">
         Height: {heightNote}
       </p>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`${id}-tz`} className={LABEL}>
-          Time zone
-        </label>
+      <Labelled id={`${id}-tz`} label="Time zone">
         <select
           id={`${id}-tz`}
           name="timeZone"
@@ -234,7 +228,7 @@ export function SiteEditor({ value, onApply, submitLabel = 'Apply site' }: { val
             'From the coordinates (time-zone boundaries of OpenStreetMap, via timezone-boundary-builder). Choose another to override.'
           )}
         </p>
-      </div>
+      </Labelled>
       <details className="text-xs" open={!!eo}>
         <summary className={LABEL}>Earth orientation for pointing (optional)</summary>
         <p className="mt-1 text-ink-300">UT1 − UTC and polar motion from IERS Bulletin A for the night observed; left empty they are taken as 0 (up to ~13″ of hour angle).</p>

@@ -3,7 +3,8 @@
  * by a chosen amount, jump to the next event, now. The detailed time panel (UTC, sidereal time, a date
  * field, twilight menu) is one of the collapsible panels.
  */
-import { useEffect, useRef, useState } from 'react';
+import { useRef, useState } from 'react';
+import { useClockText } from './clock-text';
 import { usePref } from '../ui/persist';
 import { useView } from './context';
 import { jumpToNextEvent } from './next-event';
@@ -28,32 +29,13 @@ export function TimeStrip({ onSaveTime }: { onSaveTime?: (() => void) | undefine
   const wallRef = useRef<HTMLSpanElement>(null);
   const [msg, setMsg] = useState('');
 
-  useEffect(() => {
-    const write = () => {
+  useClockText(
+    clock,
+    () => {
       if (wallRef.current) wallRef.current.textContent = `${formatWall(clock.ms, timeZone).slice(0, 16)} ${formatOffset(clock.ms, timeZone)}`;
-    };
-    write();
-    // ~8 refreshes a second while playing: DOM text each frame is costly on a software rasteriser.
-    let last = 0;
-    let timer: ReturnType<typeof setTimeout> | null = null;
-    const unsub = clock.subscribe(() => {
-      const now = performance.now();
-      if (!clock.playing || now - last > 125) {
-        last = now;
-        write();
-      } else if (!timer) {
-        timer = setTimeout(() => {
-          timer = null;
-          last = performance.now();
-          write();
-        }, 130);
-      }
-    });
-    return () => {
-      unsub();
-      if (timer) clearTimeout(timer);
-    };
-  }, [clock, timeZone]);
+    },
+    [clock, timeZone],
+  );
 
   const togglePlay = () => {
     clock.playing = !clock.playing;

@@ -10,6 +10,7 @@ import * as engine from './sky-adapter';
 import { altAzToEnu, altitudeWords, angleDeg, compassWord, formatDeg, formatDms, formatHours, formatSignedHours } from './geometry';
 import { bodyName } from './overlay';
 import { useStore } from './store';
+import { useClockText } from './clock-text';
 import { CIRCLE_STYLES, dashArray, GRID_STYLES, LEGEND, type CircleKey } from './styles';
 import { formatOffset, formatUtc, formatWall, fromLocalInputValue, SIDEREAL_DAY_MS, toLocalInputValue } from './clock';
 
@@ -118,36 +119,16 @@ export function TimeBar({ timeZone, onSaveTime }: { timeZone: string; onSaveTime
   const [twilights, setTwilights] = useState<engine.EventLike[]>([]);
   const [msg, setMsg] = useState('');
 
-  useEffect(() => {
-    const write = () => {
+  useClockText(
+    clock,
+    () => {
       if (localRef.current) localRef.current.textContent = `${formatWall(clock.ms, timeZone)} (${formatOffset(clock.ms, timeZone)})`;
       if (utcRef.current) utcRef.current.textContent = `${formatUtc(clock.ms)} UTC`;
       if (lstRef.current) lstRef.current.textContent = formatHours(model.frame.lstHours, 1);
       if (inputRef.current && document.activeElement !== inputRef.current) inputRef.current.value = toLocalInputValue(clock.ms, timeZone);
-    };
-    write();
-    // While time plays, refresh the text ~8 times a second: repainting DOM text every frame is costly on a
-    // software rasteriser, and the eye cannot read faster anyway.
-    let last = 0;
-    let timer: ReturnType<typeof setTimeout> | null = null;
-    const unsub = clock.subscribe(() => {
-      const now = performance.now();
-      if (!clock.playing || now - last > 125) {
-        last = now;
-        write();
-      } else if (!timer) {
-        timer = setTimeout(() => {
-          timer = null;
-          last = performance.now();
-          write();
-        }, 130);
-      }
-    });
-    return () => {
-      unsub();
-      if (timer) clearTimeout(timer);
-    };
-  }, [clock, timeZone]);
+    },
+    [clock, timeZone],
+  );
 
   const step = (ms: number) => clock.setMs(clock.ms + ms);
   const loadTwilights = () => {

@@ -28,17 +28,8 @@ export interface SkyBody {
   decOfDateDeg?: number;
 }
 
-/** The engine's catalogue re-ordered brightest first, plus an HR → index map. */
-export interface Catalogue {
-  count: number;
-  hr: Int32Array;
-  raDeg: Float64Array;
-  decDeg: Float64Array;
-  vmag: Float32Array;
-  designation: string[];
-  name: (string | null)[];
-  hrIndex: Map<number, number>;
-}
+/** The engine's catalogue (the columns the view uses) re-ordered brightest first, plus an HR → index map. */
+export type Catalogue = Pick<sky.Catalogue, 'count' | 'hr' | 'raDeg' | 'decDeg' | 'vmag' | 'designation' | 'name'> & { hrIndex: Map<number, number> };
 
 export interface EnvelopeLike {
   name?: string;

@@ -14,6 +14,7 @@ import type { LinkOut } from '../contracts/link';
 import type { LinkRole } from '../contracts/roles';
 import type { PublicScene, VersionOut } from '../contracts/scene';
 import type { SiteOut } from '../contracts/site';
+import type { TokenOut } from '../contracts/tokens';
 import type { ActivityOut, MemberOut, PendingInvitation } from '../contracts/team';
 
 const enc = encodeURIComponent;
@@ -29,6 +30,7 @@ export const keys = {
   links: (sceneId: string) => ['links', sceneId] as const,
   versions: (sceneId: string, version?: number) => (version === undefined ? (['versions', sceneId] as const) : (['versions', sceneId, version] as const)),
   shared: (token: string) => ['shared', token] as const,
+  tokens: () => ['tokens'] as const,
   chartComments: (token: string) => ['chart-comments', token] as const,
   comments: (access: CommentsAccess) => (access.kind === 'member' ? (['comments', access.sceneId] as const) : (['shared-comments', access.token] as const)),
 };
@@ -85,3 +87,6 @@ export const useChartComments = (token: string, enabled = true) =>
     refetchInterval: 30_000,
     queryFn: ({ signal }) => apiGet<{ comments: ChartCommentOut[] }>(`/api/shared/${enc(token)}/chart-comments`, signal).then((r) => r.comments),
   });
+
+/** The signed-in member's own API tokens. */
+export const useTokens = () => useQuery({ queryKey: keys.tokens(), queryFn: ({ signal }) => apiGet<{ tokens: TokenOut[] }>('/api/tokens', signal) });

@@ -5,7 +5,7 @@
  * HEAD only) and its owner's role in each team (policy.ts decides that as for a session). Unknown and
  * revoked tokens get the same 401; failed attempts are counted per client address.
  */
-import { createHash, randomBytes } from 'node:crypto';
+import { hashToken, newToken } from './secret-token';
 import { and, desc, eq, isNull, lt, or, sql } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import type { User } from 'lucia';
@@ -27,7 +27,6 @@ export const TOKEN_REQUESTS_PER_MINUTE = 600;
 /** Failed bearer attempts per client address in 15 minutes before 429 (as sign-in failures). */
 export const BEARER_FAILURES_PER_WINDOW = 30;
 
-const hash = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
 
 type TokenRow = typeof apiTokens.$inferSelect;
 
@@ -46,11 +45,11 @@ export async function listTokens(db: DbOrTx, userId: string): Promise<TokenOut[]
 }
 
 export async function createToken(db: DbOrTx, userId: string, input: TokenCreate): Promise<TokenOut & { token: string }> {
-  const secret = randomBytes(32).toString('base64url');
+  const secret = newToken();
   const token = `${PREFIX}${secret}`;
   const id = nanoid();
   const now = new Date();
-  const row: TokenRow = { id, userId, name: input.name, scope: input.scope, tokenHash: hash(token), hint: secret.slice(0, HINT_LENGTH), createdAt: now, lastUsedAt: null };
+  const row: TokenRow = { id, userId, name: input.name, scope: input.scope, tokenHash: hashToken(token), hint: secret.slice(0, HINT_LENGTH), createdAt: now, lastUsedAt: null };
   await writeTx(db, async (tx) => {
     const [{ n }] = await tx.select({ n: sql<number>`count(*)` }).from(apiTokens).where(eq(apiTokens.userId, userId));
     if (Number(n) >= MAX_TOKENS_PER_USER) {
@@ -112,7 +111,7 @@ export async function authenticateBearer(token: string, address: string, now = D
           .select({ id: apiTokens.id, scope: apiTokens.scope, lastUsedAt: apiTokens.lastUsedAt, userId: users.id, email: users.email, name: users.name })
           .from(apiTokens)
           .innerJoin(users, eq(users.id, apiTokens.userId))
-          .where(eq(apiTokens.tokenHash, hash(token)))
+          .where(eq(apiTokens.tokenHash, hashToken(token)))
           .limit(1)
       )[0]
     : undefined;

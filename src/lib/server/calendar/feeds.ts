@@ -2,7 +2,7 @@
  * Team calendar subscriptions: a secret URL per team (256 random bits, only the SHA-256 stored) that a
  * calendar program polls. Making a new one replaces the old (its URL stops working), deleting revokes it.
  */
-import { createHash, randomBytes } from 'node:crypto';
+import { hashToken, newToken } from '../auth/secret-token';
 import { and, asc, eq, gte } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import { writeTx, type DbOrTx } from '../db/client';
@@ -11,7 +11,6 @@ import { audit } from '../audit';
 import { notFound } from '../http';
 import { teamFeedCalendar, type FeedScene } from './scene-calendar';
 
-const hash = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
 const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
 /** Scenes listed: from a day ago on, at most this many. */
 export const FEED_MAX_SCENES = 200;
@@ -24,12 +23,12 @@ export async function currentFeed(db: DbOrTx, teamId: string) {
 }
 
 export async function createFeed(db: DbOrTx, teamId: string, userId: string, origin: string) {
-  const token = randomBytes(32).toString('base64url');
+  const token = newToken();
   const id = nanoid();
   const now = new Date();
   await writeTx(db, async (tx) => {
     await tx.delete(calendarFeeds).where(eq(calendarFeeds.teamId, teamId));
-    await tx.insert(calendarFeeds).values({ id, teamId, tokenHash: hash(token), createdBy: userId, createdAt: now });
+    await tx.insert(calendarFeeds).values({ id, teamId, tokenHash: hashToken(token), createdBy: userId, createdAt: now });
     await audit(tx, { teamId, userId, action: 'calendar.create', subjectType: 'calendar', subjectId: id });
   });
   return { id, token, url: feedUrl(origin, token), createdAt: now.toISOString() };
@@ -51,7 +50,7 @@ export async function feedCalendar(db: DbOrTx, token: string, sceneUrl: (id: str
       .select({ id: calendarFeeds.id, teamId: calendarFeeds.teamId, lastUsedAt: calendarFeeds.lastUsedAt, teamName: teams.name })
       .from(calendarFeeds)
       .innerJoin(teams, eq(teams.id, calendarFeeds.teamId))
-      .where(eq(calendarFeeds.tokenHash, hash(token)))
+      .where(eq(calendarFeeds.tokenHash, hashToken(token)))
       .limit(1)
   )[0];
   if (!feed) throw notFound('Calendar');

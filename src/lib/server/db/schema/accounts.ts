@@ -1,4 +1,5 @@
 import { sqliteTable, text, integer, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { instant, refCascade } from './columns';
 
 export const users = sqliteTable(
   'users',
@@ -7,9 +8,9 @@ export const users = sqliteTable(
     email: text().notNull(),
     name: text().notNull(),
     passwordHash: text().notNull(),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    createdAt: instant().notNull(),
     /** When the owner proved the address by a mailed link; null until then (no invitations, no notices). */
-    emailVerifiedAt: integer({ mode: 'timestamp_ms' }),
+    emailVerifiedAt: instant(),
   },
   (t) => [uniqueIndex('users_email_uq').on(t.email)],
 );
@@ -18,9 +19,7 @@ export const sessions = sqliteTable(
   'sessions',
   {
     id: text().primaryKey(),
-    userId: text()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    userId: refCascade(() => users.id),
     expiresAt: integer().notNull(),
   },
   (t) => [index('sessions_user_idx').on(t.userId)],
@@ -31,11 +30,9 @@ export const passwordResets = sqliteTable(
   {
     /** SHA-256 of the token: a database leak does not hand out working links. */
     tokenHash: text().primaryKey(),
-    userId: text()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
-    expiresAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    usedAt: integer({ mode: 'timestamp_ms' }),
+    userId: refCascade(() => users.id),
+    expiresAt: instant().notNull(),
+    usedAt: instant(),
   },
   (t) => [index('password_resets_user_idx').on(t.userId)],
 );
@@ -45,12 +42,10 @@ export const emailVerifications = sqliteTable(
   'email_verifications',
   {
     tokenHash: text().primaryKey(),
-    userId: text()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    userId: refCascade(() => users.id),
     email: text().notNull(),
-    expiresAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    usedAt: integer({ mode: 'timestamp_ms' }),
+    expiresAt: instant().notNull(),
+    usedAt: instant(),
   },
   (t) => [index('email_verifications_user_idx').on(t.userId)],
 );

@@ -1,4 +1,5 @@
-import { sqliteTable, text, integer, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, text, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { instant, refCascade, refSetNull } from './columns';
 import { users } from './accounts';
 import { teams } from './teams';
 
@@ -10,13 +11,11 @@ export const calendarFeeds = sqliteTable(
   'calendar_feeds',
   {
     id: text().primaryKey(),
-    teamId: text()
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    teamId: refCascade(() => teams.id),
     tokenHash: text().notNull(),
-    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    lastUsedAt: integer({ mode: 'timestamp_ms' }),
+    createdBy: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
+    lastUsedAt: instant(),
   },
   (t) => [uniqueIndex('calendar_feeds_hash_uq').on(t.tokenHash), index('calendar_feeds_team_idx').on(t.teamId)],
 );

@@ -1,4 +1,5 @@
 import { sqliteTable, text, integer, index, primaryKey } from 'drizzle-orm/sqlite-core';
+import { instant, refSetNull } from './columns';
 import { users } from './accounts';
 import { teams } from './teams';
 
@@ -7,9 +8,9 @@ export const auditLog = sqliteTable(
   'audit_log',
   {
     id: text().primaryKey(),
-    at: integer({ mode: 'timestamp_ms' }).notNull(),
+    at: instant().notNull(),
     teamId: text().references(() => teams.id, { onDelete: 'cascade' }),
-    userId: text().references(() => users.id, { onDelete: 'set null' }),
+    userId: refSetNull(() => users.id),
     action: text().notNull(),
     subjectType: text(),
     subjectId: text(),

@@ -1,4 +1,5 @@
 import { sqliteTable, text, integer, real, blob, index, uniqueIndex, primaryKey, type AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
+import { instant, refCascade, refSetNull } from './columns';
 import { users } from './accounts';
 import { teams } from './teams';
 
@@ -16,17 +17,15 @@ export const sites = sqliteTable(
   'sites',
   {
     id: text().primaryKey(),
-    teamId: text()
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    teamId: refCascade(() => teams.id),
     name: text().notNull(),
     lat: real().notNull(),
     lon: real().notNull(),
     height: real().notNull(),
     timeZone: text().notNull(),
-    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    createdBy: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
+    updatedAt: instant().notNull(),
   },
   (t) => [index('sites_team_idx').on(t.teamId)],
 );
@@ -36,15 +35,13 @@ export const envelopes = sqliteTable(
   'envelopes',
   {
     id: text().primaryKey(),
-    teamId: text()
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    teamId: refCascade(() => teams.id),
     name: text().notNull(),
     /** The envelope JSON of the API contract (name included). */
     data: text({ mode: 'json' }).notNull().$type<unknown>(),
-    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    createdBy: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
+    updatedAt: instant().notNull(),
   },
   (t) => [index('envelopes_team_idx').on(t.teamId)],
 );
@@ -53,9 +50,7 @@ export const scenes = sqliteTable(
   'scenes',
   {
     id: text().primaryKey(),
-    teamId: text()
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    teamId: refCascade(() => teams.id),
     title: text().notNull(),
     description: text().notNull().default(''),
     site: text({ mode: 'json' }).notNull().$type<unknown>(),
@@ -64,7 +59,7 @@ export const scenes = sqliteTable(
     layers: text({ mode: 'json' }).notNull().$type<unknown>(),
     camera: text({ mode: 'json' }).notNull().$type<unknown>(),
     /** A team envelope (resolved on read) … */
-    envelopeId: text().references(() => envelopes.id, { onDelete: 'set null' }),
+    envelopeId: refSetNull(() => envelopes.id),
     /** … or an inline one; never both. */
     envelope: text({ mode: 'json' }).$type<unknown>(),
     targets: text({ mode: 'json' }).notNull().$type<unknown>(),
@@ -72,10 +67,10 @@ export const scenes = sqliteTable(
     steps: text({ mode: 'json' }).notNull().$type<unknown>(),
     /** Optimistic concurrency: every accepted write bumps it by one. */
     version: integer().notNull().default(1),
-    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
-    updatedBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    createdBy: refSetNull(() => users.id),
+    updatedBy: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
+    updatedAt: instant().notNull(),
     /** PNG bytes of a small preview, if the client sent one. */
     thumbnail: blob({ mode: 'buffer' }),
   },
@@ -86,13 +81,11 @@ export const scenes = sqliteTable(
 export const sceneVersions = sqliteTable(
   'scene_versions',
   {
-    sceneId: text()
-      .notNull()
-      .references(() => scenes.id, { onDelete: 'cascade' }),
+    sceneId: refCascade(() => scenes.id),
     version: integer().notNull(),
     snapshot: text({ mode: 'json' }).notNull().$type<unknown>(),
-    authorId: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    authorId: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
   },
   (t) => [primaryKey({ name: 'scene_versions_pk', columns: [t.sceneId, t.version] })],
 );
@@ -101,17 +94,15 @@ export const shareLinks = sqliteTable(
   'share_links',
   {
     id: text().primaryKey(),
-    sceneId: text()
-      .notNull()
-      .references(() => scenes.id, { onDelete: 'cascade' }),
+    sceneId: refCascade(() => scenes.id),
     role: text({ enum: SHARE_ROLES }).notNull(),
     /** SHA-256 (hex) of the token; the token itself is shown once and never stored. */
     tokenHash: text().notNull(),
-    createdBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    expiresAt: integer({ mode: 'timestamp_ms' }),
-    revokedAt: integer({ mode: 'timestamp_ms' }),
-    lastUsedAt: integer({ mode: 'timestamp_ms' }),
+    createdBy: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
+    expiresAt: instant(),
+    revokedAt: instant(),
+    lastUsedAt: instant(),
   },
   (t) => [uniqueIndex('share_links_token_hash_uq').on(t.tokenHash), index('share_links_scene_idx').on(t.sceneId)],
 );
@@ -120,22 +111,20 @@ export const comments = sqliteTable(
   'comments',
   {
     id: text().primaryKey(),
-    sceneId: text()
-      .notNull()
-      .references(() => scenes.id, { onDelete: 'cascade' }),
+    sceneId: refCascade(() => scenes.id),
     parentId: text().references((): AnySQLiteColumn => comments.id, { onDelete: 'cascade' }),
-    authorUserId: text().references(() => users.id, { onDelete: 'set null' }),
+    authorUserId: refSetNull(() => users.id),
     /** Name typed by a guest on a reviewer link (authorUserId is then null). */
     authorName: text(),
-    linkId: text().references(() => shareLinks.id, { onDelete: 'set null' }),
+    linkId: refSetNull(() => shareLinks.id),
     /** Markdown, stored and returned as text. */
     body: text().notNull(),
     /** `{ra, dec}` or `{azimuth, altitude}`, degrees. */
     anchor: text({ mode: 'json' }).$type<unknown>(),
     stepId: text(),
-    resolvedAt: integer({ mode: 'timestamp_ms' }),
-    resolvedBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    resolvedAt: instant(),
+    resolvedBy: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
   },
   (t) => [index('comments_scene_created_idx').on(t.sceneId, t.createdAt), index('comments_parent_idx').on(t.parentId)],
 );
@@ -148,6 +137,6 @@ export const presenterState = sqliteTable('presenter_state', {
   stepIndex: integer().notNull(),
   /** ISO 8601 UTC, or null to use the step's own time. */
   time: text(),
-  updatedBy: text().references(() => users.id, { onDelete: 'set null' }),
-  updatedAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  updatedBy: refSetNull(() => users.id),
+  updatedAt: instant().notNull(),
 });

@@ -1,4 +1,5 @@
-import { sqliteTable, text, integer, index, primaryKey } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, text, index, primaryKey } from 'drizzle-orm/sqlite-core';
+import { instant, refCascade, refSetNull } from './columns';
 import { users } from './accounts';
 
 import { ROLES, type Role } from '../../../contracts/roles';
@@ -8,20 +9,16 @@ export { ROLES, type Role };
 export const teams = sqliteTable('teams', {
   id: text().primaryKey(),
   name: text().notNull(),
-  createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+  createdAt: instant().notNull(),
 });
 
 export const memberships = sqliteTable(
   'memberships',
   {
-    teamId: text()
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
-    userId: text()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    teamId: refCascade(() => teams.id),
+    userId: refCascade(() => users.id),
     role: text({ enum: ROLES }).notNull(),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
+    createdAt: instant().notNull(),
   },
   (t) => [primaryKey({ columns: [t.teamId, t.userId] }), index('memberships_user_idx').on(t.userId)],
 );
@@ -32,16 +29,14 @@ export const invitations = sqliteTable(
     id: text().primaryKey(),
     /** SHA-256 of the token sent by e-mail. */
     tokenHash: text().notNull().unique(),
-    teamId: text()
-      .notNull()
-      .references(() => teams.id, { onDelete: 'cascade' }),
+    teamId: refCascade(() => teams.id),
     email: text().notNull(),
     role: text({ enum: ROLES }).notNull(),
-    invitedBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    expiresAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    acceptedAt: integer({ mode: 'timestamp_ms' }),
-    acceptedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    invitedBy: refSetNull(() => users.id),
+    createdAt: instant().notNull(),
+    expiresAt: instant().notNull(),
+    acceptedAt: instant(),
+    acceptedBy: refSetNull(() => users.id),
   },
   (t) => [index('invitations_team_idx').on(t.teamId)],
 );

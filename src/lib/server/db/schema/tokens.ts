@@ -1,4 +1,5 @@
-import { sqliteTable, text, integer, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { sqliteTable, text, index, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { instant, refCascade } from './columns';
 import { users } from './accounts';
 
 export type TokenScope = 'read' | 'write';
@@ -12,15 +13,13 @@ export const apiTokens = sqliteTable(
   'api_tokens',
   {
     id: text().primaryKey(),
-    userId: text()
-      .notNull()
-      .references(() => users.id, { onDelete: 'cascade' }),
+    userId: refCascade(() => users.id),
     name: text().notNull(),
     scope: text({ enum: ['read', 'write'] }).$type<TokenScope>().notNull(),
     tokenHash: text().notNull(),
     hint: text().notNull(),
-    createdAt: integer({ mode: 'timestamp_ms' }).notNull(),
-    lastUsedAt: integer({ mode: 'timestamp_ms' }),
+    createdAt: instant().notNull(),
+    lastUsedAt: instant(),
   },
   (t) => [uniqueIndex('api_tokens_hash_uq').on(t.tokenHash), index('api_tokens_user_idx').on(t.userId)],
 );
