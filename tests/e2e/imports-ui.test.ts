@@ -100,6 +100,8 @@ browserTest('editor previews and imports a target list, imports a horizon mask w
 
   // Import the exported scene file as a new scene from /scenes/new.
   await page.goto('/scenes/new');
+  // A file chosen before the form's island hydrates is not seen by it (Astro drops `ssr` from an island once hydrated).
+  await page.waitForFunction(() => !document.querySelector('astro-island[ssr]'));
   await page.getByLabel('Scene file', { exact: true }).setInputFiles({ name: 'scene.json', mimeType: 'application/json', buffer: Buffer.from(await json.body()) });
   await page.getByRole('button', { name: 'Import scene file' }).click();
   await page.waitForURL((u) => /^\/scenes\/(?!new$)[^/]+$/.test(u.pathname), { timeout: 30_000 });

@@ -213,14 +213,8 @@ export function buildGrid(
   return { segments: Float64Array.from(segs), labels };
 }
 
-/** Unit vector from a longitude-like and latitude-like angle (RA/Dec, λ/β, l/b), degrees. */
-export function unitFromLonLat(out: Vec3Like, lonDeg: number, latDeg: number): Vec3Like {
-  const cl = Math.cos(latDeg * DEG);
-  out[0] = cl * Math.cos(lonDeg * DEG);
-  out[1] = cl * Math.sin(lonDeg * DEG);
-  out[2] = Math.sin(latDeg * DEG);
-  return out;
-}
+/** Unit vector from a longitude-like and latitude-like angle (RA/Dec, λ/β, l/b), degrees: the engine's. */
+export { unitFromLonLat } from '../../lib/sky/math';
 
 export function lonLatFromUnit(v: ArrayLike<number>): { lonDeg: number; latDeg: number } {
   let lon = Math.atan2(v[1], v[0]) * RAD;

@@ -30,35 +30,29 @@ function Shell({ id, label, error, hint, children }: FieldShell & { id: string; 
   );
 }
 
-/** A labelled input; pass react-hook-form's register(...) spread (React 19 passes `ref` as a prop). */
-export function TextField({ label, error, hint, id: idProp, className = '', ...input }: FieldShell & ComponentProps<'input'>) {
+/** The id of a field's control (its own, or a fresh one) and the ARIA that ties the control to its error and hint. */
+function useControl(idProp: string | undefined, error: string | undefined, hint?: ReactNode) {
   const auto = useId();
   const id = idProp ?? auto;
+  return { id, 'aria-invalid': error ? true : undefined, 'aria-describedby': error ? `${id}-error` : hint ? `${id}-hint` : undefined };
+}
+
+/** A labelled input; pass react-hook-form's register(...) spread (React 19 passes `ref` as a prop). */
+export function TextField({ label, error, hint, id: idProp, className = '', ...input }: FieldShell & ComponentProps<'input'>) {
+  const control = useControl(idProp, error, hint);
   return (
-    <Shell id={id} label={label} error={error} hint={hint}>
-      <input
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : hint ? `${id}-hint` : undefined}
-        className={`${CONTROL} border-ink-700 ${className}`}
-        {...input}
-      />
+    <Shell id={control.id} label={label} error={error} hint={hint}>
+      <input {...control} className={`${CONTROL} border-ink-700 ${className}`} {...input} />
     </Shell>
   );
 }
 
+/** A labelled select (its hint, if any, is not announced with it: only an error is). */
 export function SelectField({ label, error, hint, id: idProp, className = '', children, ...select }: FieldShell & ComponentProps<'select'>) {
-  const auto = useId();
-  const id = idProp ?? auto;
+  const control = useControl(idProp, error);
   return (
-    <Shell id={id} label={label} error={error} hint={hint}>
-      <select
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : undefined}
-        className={`${CONTROL} border-ink-700 ${className}`}
-        {...select}
-      >
+    <Shell id={control.id} label={label} error={error} hint={hint}>
+      <select {...control} className={`${CONTROL} border-ink-700 ${className}`} {...select}>
         {children}
       </select>
     </Shell>

@@ -92,7 +92,7 @@ export function rotZ(out: Mat3, angleRad: number, m: ArrayLike<number>): Mat3 {
 }
 
 /** Unit vector from longitude-like and latitude-like angles in degrees (RA/Dec, l/b, λ/β). */
-export function unitFromLonLat(out: Float64Array | number[], lonDeg: number, latDeg: number): Float64Array | number[] {
+export function unitFromLonLat<T extends { [i: number]: number }>(out: T, lonDeg: number, latDeg: number): T {
   const cl = Math.cos(latDeg * DEG);
   out[0] = cl * Math.cos(lonDeg * DEG);
   out[1] = cl * Math.sin(lonDeg * DEG);

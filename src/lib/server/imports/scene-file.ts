@@ -36,19 +36,6 @@ export async function importSceneFile(db: DbOrTx, user: User, teamId: unknown, f
   if (typeof teamId !== 'string' || teamId.trim() === '' || teamId.length > 64) {
     throw new HttpError(400, 'invalid', 'teamId: is required (the team that receives the new scene)', 'teamId');
   }
-  const s = file.scene;
-  return createScene(db, user, {
-    teamId,
-    title: s.title,
-    description: s.description,
-    site: s.site,
-    time: s.time,
-    layers: s.layers,
-    camera: s.camera,
-    envelopeId: null,
-    envelope: s.envelope,
-    targets: s.targets,
-    pins: s.pins,
-    steps: s.steps,
-  });
+  // The file body is the scene document without a team envelope (the envelope travels inline).
+  return createScene(db, user, { ...file.scene, teamId, envelopeId: null });
 }
