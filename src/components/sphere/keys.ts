@@ -57,11 +57,18 @@ export const KEY_HELP: { group: string; rows: KeyHelpRow[] }[] = [
   },
 ];
 
+/** Keys that step time (with Shift: backwards), as the list above says. */
+const STEP_KEYS: Partial<Record<string, number>> = { m: MINUTE_MS, h: HOUR_MS, d: DAY_MS, s: SIDEREAL_DAY_MS };
+
 /** The action for a key press on the sky view, or null when the view does not use the key. */
 export function keyAction(key: string, shift: boolean): KeyAction | null {
   const back = shift ? -1 : 1;
+  // Letters act the same in either case (Shift changes the direction, not the key).
+  const k = key.length === 1 ? key.toLowerCase() : key;
+  const stepMs = STEP_KEYS[k];
+  if (stepMs !== undefined) return { kind: 'step', ms: back * stepMs };
   const d = shift ? 15 : 5;
-  switch (key) {
+  switch (k) {
     case 'ArrowLeft':
       return { kind: 'look', dAz: -d, dAlt: 0 };
     case 'ArrowRight':
@@ -77,29 +84,13 @@ export function keyAction(key: string, shift: boolean): KeyAction | null {
     case '_':
       return { kind: 'zoom', factor: 1.15 };
     case 'v':
-    case 'V':
       return { kind: 'toggleView' };
-    case 'm':
-    case 'M':
-      return { kind: 'step', ms: back * MINUTE_MS };
-    case 'h':
-    case 'H':
-      return { kind: 'step', ms: back * HOUR_MS };
-    case 'd':
-    case 'D':
-      return { kind: 'step', ms: back * DAY_MS };
-    case 's':
-    case 'S':
-      return { kind: 'step', ms: back * SIDEREAL_DAY_MS };
     case 'e':
-    case 'E':
       return { kind: 'nextEvent' };
     case ' ':
     case 'p':
-    case 'P':
       return { kind: 'play' };
     case 'n':
-    case 'N':
       return { kind: 'now' };
     case 'Escape':
       return { kind: 'clearSelection' };

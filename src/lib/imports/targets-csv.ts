@@ -6,7 +6,7 @@
  * epoch: a year such as 2000, J2000 or J2015.5 (the epoch of the position, for proper motion).
  * pmra (μα* = μα cos δ) and pmdec in mas/yr.
  */
-import { parseDec, parseRa } from './angles';
+import { parseDec, parseRa, type AngleResult } from './angles';
 import { decodeUtf8, FileError, headerKey, parseNumber, readCsv, type RowError } from './csv';
 
 export const TARGET_COLUMNS = ['name', 'ra', 'dec', 'epoch', 'pmra', 'pmdec', 'notes'] as const;
@@ -111,22 +111,19 @@ export function parseTargetCsv(input: Uint8Array | string, opts: TargetCsvOption
     else if (seen.has(nameKey(name))) err(`duplicate name "${name}" (also on line ${seen.get(nameKey(name))})`, 'name');
     if (name !== '' && !seen.has(nameKey(name))) seen.set(nameKey(name), r.line);
 
-    let ra: number | null = null;
-    const raText = cell('ra');
-    if (raText.trim() === '') err('ra is empty', 'ra');
-    else {
-      const p = parseRa(raText);
-      if (p.ok) ra = p.value;
-      else err(`ra "${raText.trim()}": ${p.message}`, 'ra');
-    }
-    let dec: number | null = null;
-    const decText = cell('dec');
-    if (decText.trim() === '') err('dec is empty', 'dec');
-    else {
-      const p = parseDec(decText);
-      if (p.ok) dec = p.value;
-      else err(`dec "${decText.trim()}": ${p.message}`, 'dec');
-    }
+    const angle = (c: 'ra' | 'dec', parse: (text: string) => AngleResult): number | null => {
+      const text = cell(c);
+      if (text.trim() === '') {
+        err(`${c} is empty`, c);
+        return null;
+      }
+      const p = parse(text);
+      if (p.ok) return p.value;
+      err(`${c} "${text.trim()}": ${p.message}`, c);
+      return null;
+    };
+    const ra = angle('ra', parseRa);
+    const dec = angle('dec', parseDec);
     const epoch = parseEpoch(cell('epoch'));
     if (epoch === null) err(`epoch "${cell('epoch').trim()}" must be a year between 1800 and 2200, such as 2000 or J2000`, 'epoch');
     const pm = (c: 'pmra' | 'pmdec') => {
