@@ -12,7 +12,8 @@
  * bite; the pool's queue limit (503 `busy`) does, and is counted.
  *
  * Reported per mode and concurrency: answered requests a second (200 only), p50 and p99 latency of those,
- * other statuses, and the worst and p99 `/api/health` latency during the run.
+ * other statuses (a client refused with 503 waits its `Retry-After`, at most 2 s), the worst and p99
+ * `/api/health` latency during the run, and the machine's load average when the run started.
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
@@ -69,13 +70,14 @@ interface Run {
   healthWorstMs: number;
   healthP99Ms: number;
   healthProbes: number;
+  loadavg1AtStart: number;
 }
 
-async function post(s: TestServer): Promise<{ status: number; ms: number }> {
+async function post(s: TestServer): Promise<{ status: number; ms: number; retryAfter: number }> {
   const t0 = performance.now();
   const r = await fetch(`${s.url}/api/sky/windows`, { method: 'POST', headers: { 'content-type': 'application/json', 'x-forwarded-for': nextAddress() }, body: BODY });
   await r.arrayBuffer();
-  return { status: r.status, ms: performance.now() - t0 };
+  return { status: r.status, ms: performance.now() - t0, retryAfter: Number(r.headers.get('retry-after') ?? 0) };
 }
 
 async function drive(s: TestServer, mode: string, threads: number, concurrency: number): Promise<Run> {
@@ -93,15 +95,16 @@ async function drive(s: TestServer, mode: string, threads: number, concurrency: 
       await sleep(20);
     }
   })();
+  const load1 = loadavg()[0]!;
   const t0 = performance.now();
   await Promise.all(
     Array.from({ length: concurrency }, async () => {
       while (performance.now() < until) {
-        const { status, ms } = await post(s);
+        const { status, ms, retryAfter } = await post(s);
         statuses[status] = (statuses[status] ?? 0) + 1;
         if (status === 200) lat.push(ms);
-        // A refused request (503 busy) would otherwise spin: wait as a client honouring Retry-After briefly would.
-        else await sleep(50);
+        // A refused request (503 busy): wait as a client honouring Retry-After would (at most 2 s, so the run ends).
+        else await sleep(Math.min(2000, Math.max(50, retryAfter * 1000)));
       }
     }),
   );
@@ -121,16 +124,18 @@ async function drive(s: TestServer, mode: string, threads: number, concurrency: 
     healthWorstMs: Math.round(Math.max(...health)),
     healthP99Ms: Math.round(pct(health, 99)),
     healthProbes: health.length,
+    loadavg1AtStart: r1(load1),
   };
 }
 
-const uptime = (() => {
+const uptime = () => {
   try {
     return execSync('uptime').toString().trim();
   } catch {
     return `load average ${loadavg().map((x) => x.toFixed(2)).join(', ')}`;
   }
-})();
+};
+const uptimeAtStart = uptime();
 const runs: Run[] = [];
 for (const [mode, env] of [
   ['worker pool', {}],
@@ -138,7 +143,7 @@ for (const [mode, env] of [
 ] as const) {
   const s = await startServer({ seed: false, env: { ARMILLA_DIST: dist, TRUST_PROXY: 'loopback', ...env } });
   try {
-    for (let i = 0; i < 5; i++) {
+    for (let i = 0; i < 10; i++) {
       const w = await post(s);
       if (w.status !== 200) throw new Error(`warm-up: HTTP ${w.status} (is the build current?)`);
     }
@@ -155,17 +160,17 @@ for (const [mode, env] of [
 
 const result = {
   date: new Date().toISOString(),
-  machine: { cpus: cpus().length, uptimeAtEnd: uptime, loadavgAtEnd: loadavg(), note: 'shared 2-core machine; other people build and test on it' },
+  machine: { cpus: cpus().length, uptimeAtStart, uptimeAtEnd: uptime(), note: 'shared 2-core machine; other people build and test on it' },
   request: 'POST /api/sky/windows, 200 targets × 12 h, full envelope (sky.bench.ts (b)); a fresh client address per request',
   secondsPerRun: SECONDS,
   runs,
 };
-console.log(`\nCompute API: worker pool vs in-process (${uptime})`);
-console.log('| mode | clients | answered/s | p50 | p99 | other statuses | worst /api/health (p99) |');
-console.log('| --- | --- | --- | --- | --- | --- | --- |');
+console.log(`\nCompute API: worker pool vs in-process (start: ${uptimeAtStart}; end: ${result.machine.uptimeAtEnd})`);
+console.log('| mode | clients | answered/s | p50 | p99 | other statuses | worst /api/health (p99) | load at start |');
+console.log('| --- | --- | --- | --- | --- | --- | --- | --- |');
 for (const r of runs) {
   const other = Object.entries(r.statuses).filter(([k]) => k !== '200').map(([k, v]) => `${v}×${k}`).join(', ') || '—';
-  console.log(`| ${r.mode} | ${r.concurrency} | ${r.reqPerSec} | ${r.p50Ms} ms | ${r.p99Ms} ms | ${other} | ${r.healthWorstMs} ms (${r.healthP99Ms} ms) |`);
+  console.log(`| ${r.mode} | ${r.concurrency} | ${r.reqPerSec} | ${r.p50Ms} ms | ${r.p99Ms} ms | ${other} | ${r.healthWorstMs} ms (${r.healthP99Ms} ms) | ${r.loadavg1AtStart} |`);
 }
 mkdirSync('tests/bench/results', { recursive: true });
 writeFileSync('tests/bench/results/compute.json', JSON.stringify(result, null, 2) + '\n');

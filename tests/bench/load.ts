@@ -10,7 +10,7 @@
  * when the run completed, whether or not the goals were met. `LOAD_SECONDS=5` shortens each phase.
  */
 import { createRequire } from 'node:module';
-import { existsSync, mkdirSync, readdirSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { cpus, totalmem } from 'node:os';
 import { join } from 'node:path';
 import { startServer } from '../integration/helpers/server';
@@ -47,6 +47,8 @@ export interface PhaseResult {
   maxMs: number;
   errors: number;
   detail?: Record<string, number>;
+  /** Server CPU time per request, ms (see cpuMs). */
+  cpuMsPerRequest?: number | null;
 }
 
 function fromCannon(what: string, connections: number, r: CannonResult): PhaseResult {
@@ -64,13 +66,28 @@ function fromCannon(what: string, connections: number, r: CannonResult): PhaseRe
   };
 }
 
+/**
+ * CPU time the server process has used, ms (Linux /proc; user + system, all threads): per request it
+ * moves far less with the machine's load than latency does. null where /proc is missing.
+ */
+function cpuMs(pid: number | undefined): number | null {
+  try {
+    const f = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+    return ((Number(f[11]) + Number(f[12])) * 1000) / 100; // utime + stime, in clock ticks (USER_HZ = 100)
+  } catch {
+    return null;
+  }
+}
+
+const perRequest = (c0: number | null, c1: number | null, n: number) => (c0 === null || c1 === null || !n ? null : Math.round(((c1 - c0) / n) * 100) / 100);
+
 function percentile(sorted: number[], p: number): number {
   if (!sorted.length) return 0;
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
 }
 
 /** 20 editors, each in a loop for `seconds`: PATCH its own scene with the version it holds. */
-async function editorsPhase(base: string, seconds: number): Promise<PhaseResult> {
+async function editorsPhase(base: string, seconds: number, cpu: () => number | null = () => null): Promise<PhaseResult> {
   const editors: Array<{ c: ApiClient; sceneId: string; version: number }> = [];
   const stamp = Date.now().toString(36);
   for (let i = 0; i < EDITORS; i++) {
@@ -87,6 +104,10 @@ async function editorsPhase(base: string, seconds: number): Promise<PhaseResult>
     if (s.status !== 201) throw new Error(`POST /api/scenes → ${s.status} ${JSON.stringify(s.data)}`);
     editors.push({ c, sceneId: s.data.scene.id, version: s.data.scene.version });
   }
+  // the writer's batches (group commit) before and after, from /api/health
+  const writes = async () => (await new ApiClient(base).get('/api/health')).data.writes as { batches: number; jobs: number } | undefined;
+  const w0 = await writes();
+  const cpuStart = cpu();
   const latencies: number[] = [];
   let saves = 0;
   let conflicts = 0;
@@ -131,6 +152,10 @@ async function editorsPhase(base: string, seconds: number): Promise<PhaseResult>
     }),
   );
   const elapsed = (performance.now() - t0) / 1000;
+  const cpuEnd = cpu();
+  const w1 = await writes();
+  const batches = w0 && w1 ? w1.batches - w0.batches : 0;
+  const jobsPerCommit = w0 && w1 && batches ? Math.round(((w1.jobs - w0.jobs) / batches) * 10) / 10 : 0;
   latencies.sort((x, y) => x - y);
   const round = (x: number) => Math.round(x * 10) / 10;
   return {
@@ -143,7 +168,8 @@ async function editorsPhase(base: string, seconds: number): Promise<PhaseResult>
     p99Ms: round(percentile(latencies, 99)),
     maxMs: round(latencies[latencies.length - 1] ?? 0),
     errors,
-    detail: { saves, conflicts, ...statuses },
+    detail: { saves, conflicts, commits: batches, jobsPerCommit, ...statuses },
+    cpuMsPerRequest: perRequest(cpuStart, cpuEnd, latencies.length),
   };
 }
 
@@ -174,9 +200,16 @@ export async function runLoad(): Promise<Record<string, unknown>> {
       autocannon({ url: server.url + path, connections: READ_CONNECTIONS, duration: SECONDS, timeout: 10, headers: { 'accept-encoding': ACCEPT_ENCODING } });
     // warm-up (JIT, SQLite page cache), not recorded
     await autocannon({ url: server.url + sharedPath, connections: 10, duration: 1, headers: { 'accept-encoding': ACCEPT_ENCODING } });
-    const staticRes = fromCannon(`GET ${staticPath} (static asset)`, READ_CONNECTIONS, await cannon(staticPath));
-    const sharedRes = fromCannon('GET /api/shared/:token (viewer link)', READ_CONNECTIONS, await cannon(sharedPath));
-    const editorsRes = await editorsPhase(server.url, SECONDS);
+    const cpu = () => cpuMs(server.proc.pid);
+    const measured = async (run: () => Promise<CannonResult>, what: string) => {
+      const c0 = cpu();
+      const r = fromCannon(what, READ_CONNECTIONS, await run());
+      r.cpuMsPerRequest = perRequest(c0, cpu(), r.requests);
+      return r;
+    };
+    const staticRes = await measured(() => cannon(staticPath), `GET ${staticPath} (static asset)`);
+    const sharedRes = await measured(() => cannon(sharedPath), 'GET /api/shared/:token (viewer link)');
+    const editorsRes = await editorsPhase(server.url, SECONDS, cpu);
 
     const ratio = Math.round((sharedRes.requestsPerSecond / Math.max(1, staticRes.requestsPerSecond)) * 100) / 100;
     const goals = {
@@ -196,9 +229,10 @@ export async function runLoad(): Promise<Record<string, unknown>> {
     };
 
     const rows = [staticRes, sharedRes, editorsRes];
-    console.log('\n| phase | conns | req/s | p50 ms | p99 ms | errors |');
-    console.log('| --- | ---: | ---: | ---: | ---: | ---: |');
-    for (const r of rows) console.log(`| ${r.what} | ${r.connections} | ${r.requestsPerSecond} | ${r.p50Ms} | ${r.p99Ms} | ${r.errors} |`);
+    console.log('\n| phase | conns | req/s | p50 ms | p99 ms | errors | server CPU ms/req |');
+    console.log('| --- | ---: | ---: | ---: | ---: | ---: | ---: |');
+    for (const r of rows) console.log(`| ${r.what} | ${r.connections} | ${r.requestsPerSecond} | ${r.p50Ms} | ${r.p99Ms} | ${r.errors} | ${r.cpuMsPerRequest ?? '–'} |`);
+    console.log(`\neditors: ${editorsRes.detail?.saves} saves, ${editorsRes.detail?.commits} commits (${editorsRes.detail?.jobsPerCommit} writes a commit)`);
     console.log(`\nshared / static = ${ratio} (goal ≥ ${GOALS.sharedToStaticRatio})`);
     for (const [k, v] of Object.entries(goals)) console.log(`${v ? 'met   ' : 'MISSED'} ${k}`);
 

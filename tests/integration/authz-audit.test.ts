@@ -324,6 +324,8 @@ const TABLE: Record<string, Entry> = {
   'DELETE /api/shared/[token]': { expect: ALL(403) },
   'POST /api/shared/[token]/links': { expect: ALL(403), req: ({ path }) => ({ path, json: { role: 'viewer' } }) },
   'GET /api/shared/[token]/comments': { expect: ALL(200), req: () => ({ path: `/api/shared/${fx.reviewerToken}/comments` }) },
+  // chart comments are shown on the chart for every link holder, viewer links included
+  'GET /api/shared/[token]/chart-comments': { expect: ALL(200) },
   'POST /api/shared/[token]/comments': {
     expect: ALL(201),
     req: ({ caller }) => ({ path: `/api/shared/${fx.reviewerToken}/comments`, json: { body: 'Guest audit comment', authorName: `Guest ${caller}` } }),

@@ -70,9 +70,9 @@ async function world(): Promise<World> {
   const revoked = await mk('reviewer');
   const expired = await mk('reviewer');
   expect((await as.editor.del(`/api/scenes/${sc.id}/links/${revoked.id}`)).status).toBe(204);
-  const { db, client } = await openDb(s.dbUrl);
-  await db.update(shareLinks).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(shareLinks.id, expired.id));
-  client.close();
+  const db = await openDb(s.dbUrl);
+  await db.write((tx) => tx.update(shareLinks).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(shareLinks.id, expired.id)));
+  db.close();
   return { sceneId: sc.id, tokens: { viewer: viewer.token, reviewer: reviewer.token, revoked: revoked.token, expired: expired.token } };
 }
 

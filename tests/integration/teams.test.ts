@@ -3,6 +3,7 @@
  * Expected behaviour is the API contract (/work/shared/api-contract.md, "Teams").
  */
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { sql } from 'drizzle-orm';
 import { openDb } from '../../src/lib/server/db/client';
 import { startServer, type TestServer } from './helpers/server';
 import { ApiClient, DEMO } from './helpers/client';
@@ -35,12 +36,12 @@ afterAll(async () => {
 const members = (c: ApiClient, team = teamId) => c.get(`/api/teams/${team}/members`);
 
 async function auditActions(team: string): Promise<string[]> {
-  const { client } = await openDb(s.dbUrl);
+  const db = await openDb(s.dbUrl);
   try {
-    const r = await client.execute({ sql: 'select action from audit_log where team_id = ? order by at', args: [team] });
-    return r.rows.map((row) => String(row.action));
+    const rows = await db.all<{ action: string }>(sql`select action from audit_log where team_id = ${team} order by at`);
+    return rows.map((row) => String(row.action));
   } finally {
-    client.close();
+    db.close();
   }
 }
 

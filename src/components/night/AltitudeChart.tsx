@@ -17,6 +17,7 @@ export interface ChartComment {
   time: string;
   body: string;
   author?: string;
+  resolved?: boolean;
 }
 
 export interface AltitudeChartProps {
@@ -31,9 +32,15 @@ export interface AltitudeChartProps {
   onCursor?: (t: number, done: boolean) => void;
   highlight?: string | null;
   comments?: ChartComment[];
-  /** When set, a click with the Alt key (or the "pin" mode of the panel) picks a target at a time. */
+  /** In the panel's "pin" mode, a click picks the target nearest the pointer at that time. */
   onPick?: (target: string, t: number) => void;
   picking?: boolean;
+  /** A click (not a drag) near a curve: the target, the instant and where, in px from the chart's top left. */
+  onPoint?: (target: string, t: number, at: { x: number; y: number }) => void;
+  /** Enter on the chart's time slider. */
+  onEnter?: () => void;
+  /** A comment being written: its point is marked (outlined) until it is posted. */
+  pending?: { target: string; time: number } | null;
   title?: string;
   /** Width and height attributes in px (for a standalone SVG file) instead of filling the container. */
   fixedSize?: boolean;
@@ -41,7 +48,7 @@ export interface AltitudeChartProps {
 
 const M = { top: 14, right: 46, bottom: 30, left: 40 };
 
-export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, height = 400, cursor = null, onCursor, highlight = null, comments = [], onPick, picking = false, title, fixedSize = false }: AltitudeChartProps) {
+export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, height = 400, cursor = null, onCursor, highlight = null, comments = [], onPick, picking = false, onPoint, onEnter, pending = null, title, fixedSize = false }: AltitudeChartProps) {
   const id = useId().replace(/[^a-zA-Z0-9_-]/g, '');
   // render-to-commit time of each drawing, as a performance entry `night-chart` (read by tests/bench/night.bench.ts)
   const renderStart = typeof performance !== 'undefined' ? performance.now() : 0;
@@ -58,6 +65,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
   const path = useMemo(() => line<Pt>().x((p) => x(p.t)).y((p) => y(p.alt)), [x, y]);
   const svgRef = useRef<SVGSVGElement>(null);
   const [drag, setDrag] = useState(false);
+  const downAt = useRef<{ x: number; y: number } | null>(null);
   const c = (k: { screen: string; print: string }) => k[ink];
 
   const prepared = useMemo(() => {
@@ -100,6 +108,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       if (tg) onPick(tg, t);
       return;
     }
+    downAt.current = { x: e.clientX, y: e.clientY };
     if (!onCursor) return;
     e.preventDefault(); // no text selection while dragging
     e.currentTarget.setPointerCapture?.(e.pointerId);
@@ -110,11 +119,26 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
     if (drag && onCursor) onCursor(timeAt(e.clientX), false);
   };
   const onUp = (e: PointerEvent<SVGRectElement>) => {
-    if (!drag || !onCursor) return;
-    setDrag(false);
-    onCursor(timeAt(e.clientX), true);
+    const down = downAt.current;
+    downAt.current = null;
+    if (drag && onCursor) {
+      setDrag(false);
+      onCursor(timeAt(e.clientX), true);
+    }
+    // a click rather than a drag, near a curve: offer that point (e.g. to pin a comment there)
+    if (onPoint && down && e.type === 'pointerup' && Math.hypot(e.clientX - down.x, e.clientY - down.y) < 5) {
+      const t = timeAt(e.clientX);
+      const tg = nearestTarget(t, e.clientY);
+      const r = svgRef.current!.getBoundingClientRect();
+      if (tg) onPoint(tg, t, { x: e.clientX - r.left, y: e.clientY - r.top });
+    }
   };
   const onKey = (e: KeyboardEvent<SVGRectElement>) => {
+    if (e.key === 'Enter' && onEnter) {
+      e.preventDefault();
+      onEnter();
+      return;
+    }
     if (!onCursor) return;
     const stepMs = (e.shiftKey ? 60 : data.step) * 60000;
     const now = cursor ?? from;
@@ -273,12 +297,23 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
           const a = altitudeAt(tg.samples, t);
           const cx = x(t), cy = y(Math.max(0, Math.min(90, a)));
           return (
-            <g key={cm.id} data-comment={cm.id}>
-              <path d={`M${cx},${cy} l-6,-12 h12 z`} fill={c(PLAN.comment)} stroke={c(SURFACE.panel)} strokeWidth={1} />
-              <title>{`${cm.author ? `${cm.author}: ` : ''}${cm.body} — ${cm.target} at ${clock(t, timeZone)}`}</title>
+            <g key={cm.id} data-comment={cm.id} data-target={cm.target} data-time={cm.time}>
+              <path d={`M${cx},${cy} l-6,-12 h12 z`} fill={cm.resolved ? c(SURFACE.panel) : c(PLAN.comment)} stroke={cm.resolved ? c(PLAN.comment) : c(SURFACE.panel)} strokeWidth={cm.resolved ? 1.5 : 1} />
+              <title>{`${cm.author ? `${cm.author}: ` : ''}${cm.body} — ${cm.target} at ${clock(t, timeZone)}${cm.resolved ? ' (resolved)' : ''}`}</title>
             </g>
           );
         })}
+        {pending && (() => {
+          const tg = data.targets.find((t) => t.name === pending.target);
+          if (!tg || !(pending.time >= from && pending.time <= to)) return null;
+          const cx = x(pending.time), cy = y(Math.max(0, Math.min(90, altitudeAt(tg.samples, pending.time))));
+          return (
+            <g data-part="pending-comment" pointerEvents="none">
+              <path d={`M${cx},${cy} l-7,-14 h14 z`} fill="none" stroke={c(PLAN.comment)} strokeWidth={2} strokeDasharray="3 2" />
+              <circle cx={cx} cy={cy} r={2.5} fill={c(PLAN.comment)} />
+            </g>
+          );
+        })()}
       </g>
       {showCursor && (
         <g data-part="cursor" pointerEvents="none">
@@ -288,7 +323,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
           </text>
         </g>
       )}
-      {(onCursor || onPick) && (
+      {(onCursor || onPick || onPoint) && (
         <rect
           data-testid="altitude-chart-cursor"
           x={M.left}
@@ -304,6 +339,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
           aria-valuemax={to}
           aria-valuenow={cursor ?? from}
           aria-valuetext={cursor !== null ? clock(cursor, timeZone) : undefined}
+          aria-keyshortcuts={onEnter ? 'Enter' : undefined}
           onPointerDown={onDown}
           onPointerMove={onMove}
           onPointerUp={onUp}

@@ -1,5 +1,5 @@
 /** Small helpers the scene pages use to mount the night panel. */
-import type { CommentOut } from '../../lib/contracts/comment';
+import { chartPins, type CommentOut } from '../../lib/contracts/comment';
 import type { ChartComment } from './AltitudeChart';
 
 /** What the night depends on, as one string (refetch when it changes; the scene time alone does not). */
@@ -9,11 +9,5 @@ export function nightRevision(scene: { site: unknown; envelope?: unknown; envelo
 
 /** Top-level comments pinned to a point of the altitude chart. */
 export function chartComments(comments: CommentOut[]): ChartComment[] {
-  const out: ChartComment[] = [];
-  for (const c of comments) {
-    const a = c.anchor as { chart?: string; target?: string; time?: string } | null;
-    if (c.parentId || !a || a.chart !== 'altitude' || !a.target || !a.time) continue;
-    out.push({ id: c.id, target: a.target, time: a.time, body: c.body, author: c.author.name });
-  }
-  return out;
+  return chartPins(comments);
 }

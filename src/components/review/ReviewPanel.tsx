@@ -18,7 +18,7 @@ export { commentsKey, useComments, type ReviewAccess } from './comments';
 
 const GUEST_NAME_KEY = 'armilla.guestName';
 
-function Composer({ access, parentId, steps, anchor, onPick, onClearAnchor, onDone, label }: { access: ReviewAccess; parentId?: string; steps: Step[]; anchor?: Anchor | null; onPick?: () => void; onClearAnchor?: () => void; onDone?: () => void; label: string }) {
+export function Composer({ access, parentId, steps, anchor, onPick, onClearAnchor, onDone, label }: { access: ReviewAccess; parentId?: string; steps: Step[]; anchor?: Anchor | null; onPick?: () => void; onClearAnchor?: () => void; onDone?: () => void; label: string }) {
   const id = useId();
   const qc = useQueryClient();
   const [body, setBody] = useState('');
@@ -78,11 +78,13 @@ function Composer({ access, parentId, steps, anchor, onPick, onClearAnchor, onDo
             {anchor ? (
               <>
                 <span className="rounded-full border border-brass-500/60 px-2 py-0.5 text-brass-200" data-testid="comment-anchor">
-                  On the sky: {describeAnchor(anchor)}
+                  {'chart' in anchor ? 'On the chart' : 'On the sky'}: {describeAnchor(anchor)}
                 </span>
-                <button type="button" className="text-ink-300 underline" onClick={onClearAnchor}>
-                  clear
-                </button>
+                {onClearAnchor && (
+                  <button type="button" className="text-ink-300 underline" onClick={onClearAnchor}>
+                    clear
+                  </button>
+                )}
               </>
             ) : (
               onPick && (

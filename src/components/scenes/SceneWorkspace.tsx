@@ -27,7 +27,7 @@ import { Sky, shrinkPng, type PickedPoint } from './Sky';
 import { StepsEditor } from '../briefing/StepsEditor';
 import { AudienceStage, FollowBadge, Presenter, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
-import { ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
+import { Composer, ReviewPanel, useComments, type ReviewAccess } from '../review/ReviewPanel';
 import { NightPanel } from '../night/NightPanel';
 import { chartComments, nightRevision } from '../night/mount';
 
@@ -262,14 +262,7 @@ function Workspace({ scene: initial, role }: WorkspaceProps) {
         cursor={viewMs ?? Date.parse(viewScene.time)}
         onCursor={onNightCursor}
         comments={chartComments(comments.data ?? [])}
-        onPickComment={
-          canComment
-            ? (a) => {
-                setAnchor(a);
-                setTab('review');
-              }
-            : undefined
-        }
+        composer={canComment ? (anchor, done) => <Composer access={access} steps={scene.steps} anchor={anchor} onDone={done} label="Comment on the chart" /> : undefined}
       />
     </Section>    </div>
   );

@@ -2,8 +2,8 @@
  * What a share link opens: the scene read-only with the sky filling the page, its steps in a drawer (after
  * the sky on a phone), follow the presenter (the audience's stage), and for reviewer links comments.
  */
-import { useSharedScene } from '../../lib/client/queries';
-import { lazy, Suspense, useMemo, useState } from 'react';
+import { useChartComments, useSharedScene } from '../../lib/client/queries';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
@@ -16,12 +16,13 @@ import { Section, Tabs } from './controls';
 import { ExportPanel } from './ExportPanel';
 import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
-import { Markdown } from '../briefing/Markdown';
+import { Markdown, preloadMarkdown } from '../briefing/Markdown';
 import { useComments, type ReviewAccess } from '../review/comments';
 import { chartComments, nightRevision } from '../night/mount';
 
 /** Only reviewer links show it: a chunk of its own, so a viewer link's first frame does not wait for it. */
 const ReviewPanel = lazy(() => import('../review/ReviewPanel').then((m) => ({ default: m.ReviewPanel })));
+const ChartComposer = lazy(() => import('../review/ReviewPanel').then((m) => ({ default: m.Composer })));
 /** Below the sky, with its charting code: a chunk of its own, fetched once the sky has drawn its first frame. */
 const NightPanel = lazy(() => afterFirstFrame().then(() => import('../night/NightPanel')).then((m) => ({ default: m.NightPanel })));
 
@@ -37,8 +38,14 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const reviewer = q.data?.role === 'reviewer' && !embed;
   const access: ReviewAccess = { kind: 'guest', token, canComment: true };
   const comments = useComments(access, reviewer);
+  // viewer links: only the comments pinned to the altitude chart, which are shown to everyone
+  const pins = useChartComments(token, !!q.data && !reviewer && !embed);
   const markers = useMemo(() => (reviewer ? commentMarkers(comments.data ?? []) : []), [reviewer, comments.data]);
   const follow = useFollow(following ? `/api/shared/${encodeURIComponent(token)}/presenter/stream` : null);
+  // Captions and comments are Markdown: its renderer is fetched once the sky has drawn its first frame.
+  useEffect(() => {
+    if (!embed) void afterFirstFrame().then(preloadMarkdown);
+  }, [embed]);
 
   if (q.isPending) return <p className="p-4 text-sm text-ink-300">Loading the scene…</p>;
   if (q.isError)
@@ -185,13 +192,14 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
         revision={nightRevision(scene)}
         cursor={viewMs ?? Date.parse(shown.time)}
         onCursor={(t) => setViewMs(t)}
-        comments={reviewer ? chartComments(comments.data ?? []) : []}
-        onPickComment={
+        comments={reviewer ? chartComments(comments.data ?? []) : (pins.data ?? [])}
+        composer={
           reviewer
-            ? (a) => {
-                setAnchor(a);
-                setTab('review');
-              }
+            ? (anchor, done) => (
+                <Suspense fallback={<p className="text-sm text-ink-300">Loading the comment form…</p>}>
+                  <ChartComposer access={access} steps={scene.steps} anchor={anchor} onDone={done} label="Comment on the chart" />
+                </Suspense>
+              )
             : undefined
         }
       />

@@ -8,7 +8,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { apiGet } from './api';
 import type { SceneListRow } from './scene-list';
-import type { CommentOut } from '../contracts/comment';
+import type { ChartCommentOut, CommentOut } from '../contracts/comment';
 import type { EnvelopeOut } from '../contracts/envelope';
 import type { LinkOut } from '../contracts/link';
 import type { LinkRole } from '../contracts/roles';
@@ -29,6 +29,7 @@ export const keys = {
   links: (sceneId: string) => ['links', sceneId] as const,
   versions: (sceneId: string, version?: number) => (version === undefined ? (['versions', sceneId] as const) : (['versions', sceneId, version] as const)),
   shared: (token: string) => ['shared', token] as const,
+  chartComments: (token: string) => ['chart-comments', token] as const,
   comments: (access: CommentsAccess) => (access.kind === 'member' ? (['comments', access.sceneId] as const) : (['shared-comments', access.token] as const)),
 };
 
@@ -74,4 +75,13 @@ export const useCommentList = (access: CommentsAccess, enabled = true) =>
     refetchInterval: 15_000,
     queryFn: ({ signal }) =>
       apiGet<{ comments: CommentOut[] }>(access.kind === 'member' ? `/api/scenes/${enc(access.sceneId)}/comments` : `/api/shared/${enc(access.token)}/comments`, signal).then((r) => r.comments),
+  });
+
+/** The comments pinned to the altitude chart, through any share link (viewer links included). */
+export const useChartComments = (token: string, enabled = true) =>
+  useQuery({
+    queryKey: keys.chartComments(token),
+    enabled,
+    refetchInterval: 30_000,
+    queryFn: ({ signal }) => apiGet<{ comments: ChartCommentOut[] }>(`/api/shared/${enc(token)}/chart-comments`, signal).then((r) => r.comments),
   });

@@ -8,7 +8,7 @@ import { z } from 'zod';
 import { audit } from './audit';
 import { hashToken, newToken } from './auth/secret-token';
 import { dummyHash, hashPassword, verifyPassword } from './auth/password';
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx } from './db/client';
 import { emailVerifications, memberships, passwordResets, rateLimits, sessions, teams, users } from './db/schema';
 import { HttpError } from './http';
 import { rateCount, rateLimit, reserve } from './rate-limit';
@@ -57,12 +57,14 @@ const VERIFY_MAIL_LIMIT = { perUser: 5, windowSec: 60 * 60 } as const;
 export async function sendEmailVerification(db: DbOrTx, user: PublicUser, requestUrl: URL): Promise<void> {
   await rateLimit(`verify-mail:${user.id}`, VERIFY_MAIL_LIMIT.perUser, VERIFY_MAIL_LIMIT.windowSec);
   const token = newToken();
-  await db.insert(emailVerifications).values({
-    tokenHash: hashToken(token),
-    userId: user.id,
-    email: user.email,
-    expiresAt: new Date(Date.now() + VERIFY_VALID_HOURS * 3600_000),
-  });
+  await writeTx(db, (tx) =>
+    tx.insert(emailVerifications).values({
+      tokenHash: hashToken(token),
+      userId: user.id,
+      email: user.email,
+      expiresAt: new Date(Date.now() + VERIFY_VALID_HOURS * 3600_000),
+    }),
+  );
   const mail = verifyEmailMail({ name: user.name, url: `${linkOrigin(requestUrl)}/verify/${token}`, validHours: VERIFY_VALID_HOURS });
   sendMail({ to: user.email, ...mail }).catch((e) => console.error('[mail] verification mail failed', e));
 }
@@ -70,7 +72,7 @@ export async function sendEmailVerification(db: DbOrTx, user: PublicUser, reques
 /** Spends a verification link: the account's address is verified if it is still the one the link was sent to. */
 export async function confirmEmail(db: DbOrTx, token: string): Promise<PublicUser | null> {
   if (!token || token.length > 200) return null;
-  return db.transaction(async (tx) => {
+  return writeTx(db, async (tx) => {
     const now = new Date();
     const v = (
       await tx
@@ -145,7 +147,7 @@ export async function signUp(
   const now = new Date();
   const user = { id: nanoid(), email: input.email, name: input.name };
   try {
-    await db.transaction(async (tx) => {
+    await writeTx(db, async (tx) => {
       await tx.insert(users).values({ ...user, passwordHash, createdAt: now });
       if (input.personalTeam) {
         const teamId = nanoid();
@@ -207,7 +209,7 @@ export async function signIn(db: DbOrTx, input: z.infer<typeof signInInput>, cli
     if (!user || !ok) throw INVALID_CREDENTIALS();
     // Only failures count: the attempt is given back, and this address's failures for the e-mail forgotten.
     await attempt.release();
-    await db.delete(rateLimits).where(eq(rateLimits.key, pairKey));
+    await writeTx(db, (tx) => tx.delete(rateLimits).where(eq(rateLimits.key, pairKey)));
     return { id: user.id, email: user.email, name: user.name };
   } finally {
     for (const l of limits) {
@@ -227,11 +229,13 @@ export async function requestPasswordReset(db: DbOrTx, email: string, clientAddr
   const user = await findUserByEmail(db, email);
   if (!user) return;
   const token = newToken();
-  await db.insert(passwordResets).values({
-    tokenHash: hashToken(token),
-    userId: user.id,
-    expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000),
-  });
+  await writeTx(db, (tx) =>
+    tx.insert(passwordResets).values({
+      tokenHash: hashToken(token),
+      userId: user.id,
+      expiresAt: new Date(Date.now() + RESET_VALID_MINUTES * 60_000),
+    }),
+  );
   const mail = passwordResetMail({ name: user.name, url: `${linkOrigin(requestUrl)}/reset/${token}`, validMinutes: RESET_VALID_MINUTES });
   // Not awaited: the answer must not take longer for a known address than for an unknown one.
   sendMail({ to: user.email, ...mail }).catch((e) => console.error('[mail] password reset mail failed', e));
@@ -240,7 +244,7 @@ export async function requestPasswordReset(db: DbOrTx, email: string, clientAddr
 /** Sets the new password, spends every open reset token of the user and ends all of their sessions. */
 export async function confirmPasswordReset(db: DbOrTx, input: z.infer<typeof resetConfirmInput>): Promise<PublicUser> {
   const passwordHash = await hashPassword(input.password);
-  return db.transaction(async (tx) => {
+  return writeTx(db, async (tx) => {
     const now = new Date();
     const rows = await tx
       .select({ userId: passwordResets.userId })
@@ -265,7 +269,7 @@ export async function changePassword(db: DbOrTx, userId: string, currentSessionI
     throw new HttpError(400, 'wrong_password', 'The current password is wrong.', 'currentPassword');
   }
   const passwordHash = await hashPassword(input.newPassword);
-  await db.transaction(async (tx) => {
+  await writeTx(db, async (tx) => {
     await tx.update(users).set({ passwordHash }).where(eq(users.id, userId));
     await tx.delete(sessions).where(and(eq(sessions.userId, userId), ne(sessions.id, currentSessionId)));
     await audit(tx, { userId, action: 'account.password_change', subjectType: 'user', subjectId: userId });
@@ -273,8 +277,10 @@ export async function changePassword(db: DbOrTx, userId: string, currentSessionI
 }
 
 export async function updateProfile(db: DbOrTx, userId: string, input: z.infer<typeof profileInput>): Promise<PublicUser> {
-  await db.update(users).set({ name: input.name }).where(eq(users.id, userId));
-  const u = (await db.select().from(users).where(eq(users.id, userId)).limit(1))[0]!;
+  const u = await writeTx(db, async (tx) => {
+    await tx.update(users).set({ name: input.name }).where(eq(users.id, userId));
+    return (await tx.select().from(users).where(eq(users.id, userId)).limit(1))[0]!;
+  });
   return { id: u.id, email: u.email, name: u.name };
 }
 

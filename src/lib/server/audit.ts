@@ -1,5 +1,5 @@
 import { nanoid } from 'nanoid';
-import type { DbOrTx } from './db/client';
+import type { Tx } from './db/client';
 import { auditLog } from './db/schema';
 
 export interface AuditEntry {
@@ -13,7 +13,7 @@ export interface AuditEntry {
 }
 
 /** Appends one line to the activity log; call it inside the same transaction as the change. */
-export async function audit(db: DbOrTx, e: AuditEntry): Promise<void> {
+export async function audit(db: Tx, e: AuditEntry): Promise<void> {
   await db.insert(auditLog).values({
     id: nanoid(),
     at: new Date(),

@@ -4,7 +4,7 @@
  */
 import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx } from './db/client';
 import { comments, memberships, scenes, users } from './db/schema';
 import { oneLine } from './mail/templates';
 import { audit } from './audit';
@@ -12,7 +12,7 @@ import { badRequest, notFound } from './http';
 import type { Anchor, CommentCreateBody, CommentOut } from '../contracts/comment';
 
 export type { CommentOut };
-import { docOf, writeTx } from './scene-service';
+import { docOf } from './scene-service';
 
 type CommentRow = typeof comments.$inferSelect;
 type SceneRow = typeof scenes.$inferSelect;

@@ -2,13 +2,13 @@
 import { asc, count, eq } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import type { User } from 'lucia';
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx } from './db/client';
 import { envelopes, scenes } from './db/schema';
 import { audit } from './audit';
 import { fromZod, notFound } from './http';
 import { authorize, type Action } from './policy';
 import { mergeEnvelope, teamEnvelopeSchema, type TeamEnvelopeJson } from '../contracts/envelope';
-import { envelopeOf, writeTx } from './scene-service';
+import { envelopeOf } from './scene-service';
 
 type EnvelopeRow = typeof envelopes.$inferSelect;
 

@@ -8,11 +8,11 @@ import { and, asc, eq, isNull, lt, or, sql, type Placeholder } from 'drizzle-orm
 import { drizzle } from 'drizzle-orm/libsql';
 import { preparedReadsOf } from './db/prepared';
 import { nanoid } from 'nanoid';
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx, type QueryBuilder } from './db/client';
 import { envelopes, scenes, shareLinks, type ShareRole } from './db/schema';
 import { audit } from './audit';
 import { badRequest, notFound } from './http';
-import { sceneStateColumns, writeTx, type SceneState } from './scene-service';
+import { sceneStateColumns, type SceneState } from './scene-service';
 
 type LinkRow = typeof shareLinks.$inferSelect;
 type SceneRow = typeof scenes.$inferSelect;
@@ -139,7 +139,7 @@ export async function resolveLink(db: DbOrTx, token: string, touch = false) {
 }
 
 /** resolveLink's query; the columns are read back by position in linkHeadOf. */
-const linkLookup = (db: DbOrTx, hash: string | Placeholder) =>
+const linkLookup = (db: QueryBuilder, hash: string | Placeholder) =>
   db
     .select({
       id: shareLinks.id,

@@ -4,13 +4,13 @@
  * its row about every 500 ms and sends `event: step` when it changes.
  */
 import { eq } from 'drizzle-orm';
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx } from './db/client';
 import { presenterState, scenes } from './db/schema';
 import { badRequest } from './http';
 import type { PresenterOut } from '../contracts/presenter';
 
 export type { PresenterOut };
-import { docOf, writeTx } from './scene-service';
+import { docOf } from './scene-service';
 
 type SceneRow = typeof scenes.$inferSelect;
 

@@ -10,11 +10,13 @@ import { rateLimits } from './db/schema';
  */
 export async function rateLimit(key: string, limit: number, windowSec: number, now = Date.now(), cost = 1): Promise<number> {
   const windowStart = Math.floor(now / 1000 / windowSec) * windowSec;
-  const rows = await db
-    .insert(rateLimits)
-    .values({ key, windowStart, count: cost })
-    .onConflictDoUpdate({ target: [rateLimits.key, rateLimits.windowStart], set: { count: sql`${rateLimits.count} + ${cost}` } })
-    .returning({ count: rateLimits.count });
+  const rows = await db.write((tx) =>
+    tx
+      .insert(rateLimits)
+      .values({ key, windowStart, count: cost })
+      .onConflictDoUpdate({ target: [rateLimits.key, rateLimits.windowStart], set: { count: sql`${rateLimits.count} + ${cost}` } })
+      .returning({ count: rateLimits.count }),
+  );
   const count = rows[0]?.count ?? 1;
   if (count > limit) {
     const retryAfter = Math.max(1, windowStart + windowSec - Math.floor(now / 1000));
@@ -28,13 +30,14 @@ export async function rateLimit(key: string, limit: number, windowSec: number, n
 /** Reads a counter without counting a hit (sign-in throttling counts only failures). */
 export async function rateCount(key: string, windowSec: number, now = Date.now()): Promise<number> {
   const windowStart = Math.floor(now / 1000 / windowSec) * windowSec;
-  const r = await db.run(sql`select count from rate_limits where key = ${key} and window_start = ${windowStart}`);
-  return Number((r.rows[0] as unknown as { count?: number } | undefined)?.count ?? 0);
+  // `all`, not `get`: drizzle's libsql `get` of a raw statement fails on an empty result
+  const rows = await db.all<{ count: number }>(sql`select count from rate_limits where key = ${key} and window_start = ${windowStart}`);
+  return Number(rows[0]?.count ?? 0);
 }
 
 /** Old windows are dropped now and then so the table stays small. */
 export async function pruneRateLimits(now = Date.now()): Promise<void> {
-  await db.delete(rateLimits).where(sql`${rateLimits.windowStart} < ${Math.floor(now / 1000) - 86_400}`);
+  await db.write((tx) => tx.delete(rateLimits).where(sql`${rateLimits.windowStart} < ${Math.floor(now / 1000) - 86_400}`));
 }
 
 /** A counted attempt that can be given back (see `reserve`). */
@@ -68,18 +71,20 @@ export function waitInWords(sec: number): string {
 export async function reserve(limits: ReservedLimit[], now = Date.now()): Promise<Reservation> {
   const rows = limits.map((l) => ({ key: l.key, windowStart: Math.floor(now / 1000 / l.windowSec) * l.windowSec, count: 1 }));
   // One statement for every counter: one write (and one fsync) an attempt, whatever the number of limits.
-  const counts = await db
-    .insert(rateLimits)
-    .values(rows)
-    .onConflictDoUpdate({ target: [rateLimits.key, rateLimits.windowStart], set: { count: sql`${rateLimits.count} + 1` } })
-    .returning({ key: rateLimits.key, count: rateLimits.count });
+  const counts = await db.write((tx) =>
+    tx
+      .insert(rateLimits)
+      .values(rows)
+      .onConflictDoUpdate({ target: [rateLimits.key, rateLimits.windowStart], set: { count: sql`${rateLimits.count} + 1` } })
+      .returning({ key: rateLimits.key, count: rateLimits.count }),
+  );
   const countOf = new Map(counts.map((c) => [c.key, c.count]));
   let released = false;
   const release = async () => {
     if (released) return;
     released = true;
     const match = sql.join(rows.map((r) => sql`(key = ${r.key} and window_start = ${r.windowStart})`), sql` or `);
-    await db.run(sql`update rate_limits set count = count - 1 where count > 0 and (${match})`);
+    await db.write((tx) => tx.run(sql`update rate_limits set count = count - 1 where count > 0 and (${match})`));
   };
   let retryAfter = 0;
   let hit: ReservedLimit | undefined;

@@ -8,7 +8,7 @@ import { nanoid } from 'nanoid';
 import { ByteCache, cacheBudgetBytes, stringBytes } from './caches';
 import { checkPng } from './png-check';
 import type { User } from 'lucia';
-import type { Db, DbOrTx, Tx } from './db/client';
+import { writeTx, type DbOrTx, type QueryBuilder, type Tx } from './db/client';
 import { envelopes, memberships, scenes, sceneVersions, sites } from './db/schema';
 import { audit } from './audit';
 import { HttpError, notFound } from './http';
@@ -19,38 +19,6 @@ import { applyPatch, defaultCamera, sceneDocSchema, withDefaultLayers, type Scen
 import { teamEnvelopeSchema, type EnvelopeJson, type TeamEnvelopeJson } from '../contracts/envelope';
 
 type SceneRow = typeof scenes.$inferSelect;
-
-// ---------------------------------------------------------------------------------------------
-// Transactions
-
-function isBusy(e: unknown): boolean {
-  for (let x: unknown = e, i = 0; x && i < 5; x = (x as { cause?: unknown }).cause, i++) {
-    const code = (x as { code?: unknown }).code;
-    if (code === 'SQLITE_BUSY' || code === 'SQLITE_LOCKED') return true;
-    if (x instanceof Error && /SQLITE_BUSY|database is locked/.test(x.message)) return true;
-  }
-  return false;
-}
-
-const isTx = (db: DbOrTx): db is Tx => typeof (db as Tx).rollback === 'function';
-
-/**
- * A write transaction (BEGIN IMMEDIATE). Connections of the libSQL pool other than the first have no
- * busy timeout, so a writer that finds the file locked retries with a short jittered back-off instead
- * of failing; inside an outer transaction this is a savepoint.
- */
-export async function writeTx<T>(db: DbOrTx, fn: (tx: Tx) => Promise<T>): Promise<T> {
-  if (isTx(db)) return db.transaction(fn);
-  const deadline = Date.now() + 10_000;
-  for (let attempt = 0; ; attempt++) {
-    try {
-      return await (db as Db).transaction(fn);
-    } catch (e) {
-      if (!isBusy(e) || Date.now() > deadline) throw e;
-      await new Promise((r) => setTimeout(r, Math.min(100, 5 + attempt * 5) * (0.5 + Math.random())));
-    }
-  }
-}
 
 // ---------------------------------------------------------------------------------------------
 // Reading
@@ -259,7 +227,7 @@ export async function sceneAccess(db: DbOrTx, user: User, id: string, action: Ac
   return { id: sceneId, teamId, role };
 }
 
-const sceneAccessQuery = (db: DbOrTx, userId: string | Placeholder, id: string | Placeholder) =>
+const sceneAccessQuery = (db: QueryBuilder, userId: string | Placeholder, id: string | Placeholder) =>
   db
     .select({ id: scenes.id, teamId: scenes.teamId, role: memberships.role })
     .from(scenes)
@@ -323,7 +291,7 @@ function columnsOf(doc: SceneDoc) {
   };
 }
 
-async function snapshot(tx: DbOrTx, sceneId: string, version: number, doc: SceneDoc, authorId: string | null, at: Date) {
+async function snapshot(tx: Tx, sceneId: string, version: number, doc: SceneDoc, authorId: string | null, at: Date) {
   await tx.insert(sceneVersions).values({ sceneId, version, snapshot: doc, authorId, createdAt: at });
 }
 
@@ -334,7 +302,7 @@ export interface CreateOptions {
 }
 
 /** Caller must have checked `scene.write` on body.teamId (createScene does it when given a user). */
-export async function insertScene(tx: DbOrTx, teamId: string, doc: SceneDoc, userId: string | null, opts: CreateOptions = {}) {
+export async function insertScene(tx: Tx, teamId: string, doc: SceneDoc, userId: string | null, opts: CreateOptions = {}) {
   const checked = sceneDocSchema.parse(doc);
   if (checked.envelopeId) await checkEnvelopeInTeam(tx, checked.envelopeId, teamId);
   const id = opts.id ?? nanoid();

@@ -2,13 +2,12 @@
 import { asc, eq } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import type { User } from 'lucia';
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx } from './db/client';
 import { sites } from './db/schema';
 import { audit } from './audit';
 import { notFound } from './http';
 import { authorize, type Action } from './policy';
 import { siteSchema, type Site } from '../contracts/scene-doc';
-import { writeTx } from './scene-service';
 
 type SiteRow = typeof sites.$inferSelect;
 

@@ -10,7 +10,7 @@ import { audit } from './audit';
 import type { MemberOut as Member, PendingInvitation, TeamSummary } from '../contracts/team';
 
 export type { Member, PendingInvitation, TeamSummary };
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx } from './db/client';
 import { invitations, memberships, ROLES, teams, users, type Role } from './db/schema';
 import { HttpError, notFound } from './http';
 import { authorize } from './policy';
@@ -41,7 +41,7 @@ export async function listTeamsOf(db: DbOrTx, userId: string): Promise<TeamSumma
 export async function createTeam(db: DbOrTx, user: User, name: string): Promise<TeamSummary> {
   const id = nanoid();
   const now = new Date();
-  await db.transaction(async (tx) => {
+  await writeTx(db, async (tx) => {
     await tx.insert(teams).values({ id, name, createdAt: now });
     await tx.insert(memberships).values({ teamId: id, userId: user.id, role: 'owner', createdAt: now });
     await audit(tx, { teamId: id, userId: user.id, action: 'team.create', subjectType: 'team', subjectId: id, detail: { name } });
@@ -82,7 +82,7 @@ const lastOwner = () =>
 
 /** Owner only. Demoting the only owner answers 409 `last_owner`. */
 export async function changeRole(db: DbOrTx, actor: User, teamId: string, userId: string, role: Role): Promise<Member> {
-  await db.transaction(async (tx) => {
+  await writeTx(db, async (tx) => {
     await authorize(tx, actor, teamId, 'team.manage', 'Team');
     const m = await membership(tx, teamId, userId);
     if (!m) throw notFound('Member');
@@ -97,7 +97,7 @@ export async function changeRole(db: DbOrTx, actor: User, teamId: string, userId
 
 /** Owners remove anyone; any member may leave (remove themselves). The last owner can do neither. */
 export async function removeMember(db: DbOrTx, actor: User, teamId: string, userId: string): Promise<void> {
-  await db.transaction(async (tx) => {
+  await writeTx(db, async (tx) => {
     const self = userId === actor.id;
     await authorize(tx, actor, teamId, self ? 'team.read' : 'team.manage', 'Team');
     const m = await membership(tx, teamId, userId);
@@ -170,7 +170,7 @@ export async function invite(
   const now = new Date();
   const expiresAt = new Date(now.getTime() + INVITATION_VALID_DAYS * 86_400_000);
   const id = nanoid();
-  const teamName = await db.transaction(async (tx) => {
+  const teamName = await writeTx(db, async (tx) => {
     await authorize(tx, actor, teamId, 'team.manage', 'Team');
     const existing = await tx
       .select({ userId: memberships.userId })
@@ -198,7 +198,7 @@ export async function invite(
 }
 
 export async function revokeInvitation(db: DbOrTx, actor: User, teamId: string, invitationId: string): Promise<void> {
-  await db.transaction(async (tx) => {
+  await writeTx(db, async (tx) => {
     await authorize(tx, actor, teamId, 'team.manage', 'Team');
     const r = await tx
       .delete(invitations)
@@ -236,7 +236,7 @@ export async function previewInvitation(db: DbOrTx, token: string): Promise<Invi
  * sent to, so a forwarded or leaked link is useless to anyone else.
  */
 export async function acceptInvitation(db: DbOrTx, user: User, token: string): Promise<TeamSummary> {
-  return db.transaction(async (tx) => {
+  return writeTx(db, async (tx) => {
     const now = new Date();
     const rows = await tx
       .select()

@@ -6,11 +6,11 @@
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { User } from 'lucia';
-import type { DbOrTx } from './db/client';
+import { writeTx, type DbOrTx } from './db/client';
 import { scenes } from './db/schema';
 import { audit } from './audit';
 import { HttpError } from './http';
-import { sceneFor, toSceneOut, writeTx } from './scene-service';
+import { sceneFor, toSceneOut } from './scene-service';
 import { skyThumbnail, thumbnailEtag, thumbnailKey } from './thumbnails/render.server';
 import { readCapped } from './upload';
 import { isPng } from '../png';

@@ -61,19 +61,21 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
   const dir = mkdtempSync(join(tmpdir(), 'armilla-test-'));
   const dbUrl = opts.dbUrl ?? `file:${join(dir, 'test.db')}`;
   if (!opts.dbUrl) {
-    const { db, client } = await openDb(dbUrl);
+    const db = await openDb(dbUrl);
     await migrateDb(db);
     if (opts.seed !== false) {
       const { seedDemo } = await import('../../../src/lib/server/seed');
       await seedDemo(db);
     }
-    client.close();
+    db.close();
   }
   const port = await freePort();
   const url = `http://127.0.0.1:${port}`;
   let out = '';
   const launch = () => {
-    const proc = spawn(process.execPath, [resolve(process.env.ARMILLA_DIST ?? 'dist', 'server/armilla.mjs')], {
+    // ARMILLA_SERVER_NODE_ARGS: extra node flags for the server, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof` to profile a load run
+    const nodeArgs = (process.env.ARMILLA_SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+    const proc = spawn(process.execPath, [...nodeArgs, resolve(process.env.ARMILLA_DIST ?? 'dist', 'server/armilla.mjs')], {
       env: {
         ...process.env,
         HOST: '127.0.0.1',

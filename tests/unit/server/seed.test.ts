@@ -2,28 +2,29 @@ import { afterAll, beforeAll, expect, test } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { openDb, type DbHandle } from '../../../src/lib/server/db/client';
+import { sql } from 'drizzle-orm';
+import { openDb, type Database } from '../../../src/lib/server/db/client';
 import { migrateDb } from '../../../src/lib/server/db/migrate';
 import { seedDemo } from '../../../src/lib/server/seed';
 import { verifyPassword } from '../../../src/lib/server/auth/password';
 
 // Expected accounts: the API contract's "Demo accounts" list (/work/shared/api-contract.md).
 let dir: string;
-let h: DbHandle;
+let db: Database;
 beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'armilla-seed-'));
-  h = await openDb(`file:${join(dir, 'seed.db')}`);
-  await migrateDb(h.db);
+  db = await openDb(`file:${join(dir, 'seed.db')}`);
+  await migrateDb(db);
 }, 60_000);
 afterAll(() => {
-  h?.client.close();
+  db?.close();
   rmSync(dir, { recursive: true, force: true });
 });
 
-const q = async (sql: string) => (await h.client.execute(sql)).rows.map((r) => ({ ...r }));
+const q = async (query: string) => db.all<Record<string, unknown>>(sql.raw(query));
 
 test('seeds exactly the contract accounts and teams on an empty database, then never again', async () => {
-  expect(await seedDemo(h.db)).toBe(true);
+  expect(await seedDemo(db)).toBe(true);
   const rows = await q(
     'select u.email, t.name as team, m.role from memberships m join users u on u.id = m.user_id join teams t on t.id = m.team_id order by u.email',
   );
@@ -38,12 +39,12 @@ test('seeds exactly the contract accounts and teams on an empty database, then n
   expect(await verifyPassword(hash, 'armilla-demo')).toBe(true);
 
   const before = await q('select count(*) as n from users');
-  expect(await seedDemo(h.db)).toBe(false);
+  expect(await seedDemo(db)).toBe(false);
   expect(await q('select count(*) as n from users')).toEqual(before);
 }, 60_000);
 
 test('a database that has any user is left alone', async () => {
-  await h.client.execute("delete from memberships");
-  expect(await seedDemo(h.db)).toBe(false);
+  await db.write((tx) => tx.run(sql`delete from memberships`));
+  expect(await seedDemo(db)).toBe(false);
   expect(await q('select count(*) as n from memberships')).toEqual([{ n: 0 }]);
 }, 60_000);

@@ -1,5 +1,5 @@
 import { Lucia, type DatabaseSession, type DatabaseUser } from 'lucia';
-import { eq, sql } from 'drizzle-orm';
+import { eq, lte, sql } from 'drizzle-orm';
 import { drizzle } from 'drizzle-orm/libsql';
 import { preparedReadsOf } from '../db/prepared';
 import { DrizzleSQLiteAdapter } from '@lucia-auth/adapter-drizzle';
@@ -8,10 +8,27 @@ import { sessions, users } from '../db/schema';
 
 /**
  * The drizzle adapter, with the lookup every signed-in request makes done in one statement prepared
- * once (db/prepared.ts) instead of two built and prepared per request. Sessions are still read from
- * the database on every request, so ending one takes effect at once on every instance.
+ * once (db/prepared.ts) instead of two built and prepared per request, and its writes through the
+ * database module's write path (`db.write`). Sessions are still read from the database on every
+ * request, so ending one takes effect at once on every instance.
  */
 class SessionAdapter extends DrizzleSQLiteAdapter {
+  override async setSession(s: DatabaseSession): Promise<void> {
+    await db.write((tx) => tx.insert(sessions).values({ id: s.id, userId: s.userId, expiresAt: Math.floor(s.expiresAt.getTime() / 1000) }));
+  }
+  override async updateSessionExpiration(sessionId: string, expiresAt: Date): Promise<void> {
+    await db.write((tx) => tx.update(sessions).set({ expiresAt: Math.floor(expiresAt.getTime() / 1000) }).where(eq(sessions.id, sessionId)));
+  }
+  override async deleteSession(sessionId: string): Promise<void> {
+    await db.write((tx) => tx.delete(sessions).where(eq(sessions.id, sessionId)));
+  }
+  override async deleteUserSessions(userId: string): Promise<void> {
+    await db.write((tx) => tx.delete(sessions).where(eq(sessions.userId, userId)));
+  }
+  override async deleteExpiredSessions(): Promise<void> {
+    await db.write((tx) => tx.delete(sessions).where(lte(sessions.expiresAt, Math.floor(Date.now() / 1000))));
+  }
+
   override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
     const reads = preparedReadsOf(db);
     if (!reads) return super.getSessionAndUser(sessionId);

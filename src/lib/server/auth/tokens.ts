@@ -10,12 +10,11 @@ import { and, desc, eq, isNull, lt, or, sql } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import type { User } from 'lucia';
 import { db as appDb } from '../db';
-import type { DbOrTx } from '../db/client';
+import { writeTx, type DbOrTx } from '../db/client';
 import { apiTokens, users } from '../db/schema';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { rateLimit } from '../rate-limit';
-import { writeTx } from '../scene-service';
 import { MAX_TOKENS_PER_USER, type TokenCreate, type TokenOut, type TokenScope } from '../../contracts/tokens';
 
 const PREFIX = 'arm_';

@@ -5,11 +5,10 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { and, asc, eq, gte } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
-import type { DbOrTx } from '../db/client';
+import { writeTx, type DbOrTx } from '../db/client';
 import { calendarFeeds, scenes, teams } from '../db/schema';
 import { audit } from '../audit';
 import { notFound } from '../http';
-import { writeTx } from '../scene-service';
 import { teamFeedCalendar, type FeedScene } from './scene-calendar';
 
 const hash = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');

@@ -48,7 +48,11 @@ export function preparedReads(url: string, client: Client, timeoutMs: number): P
   const statements = new Map<string, Database.Statement>();
   return {
     async all(sql, args) {
-      conn ??= new Database(path, { timeout: timeoutMs } as Database.Options);
+      if (!conn) {
+        conn = new Database(path, { timeout: timeoutMs } as Database.Options);
+        // reads only: SQLite itself refuses a write on this connection
+        conn.exec('PRAGMA query_only = ON');
+      }
       let stmt = statements.get(sql);
       if (!stmt) {
         stmt = conn.prepare(sql);

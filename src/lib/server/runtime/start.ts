@@ -43,11 +43,11 @@ if (stale && env.SKIP_BUILD !== '1') {
   if (r.status !== 0) process.exit(r.status ?? 1);
 }
 
-const { db, client } = await openDb(env.DATABASE_URL, env.DATABASE_AUTH_TOKEN);
+const db = await openDb(env.DATABASE_URL, { authToken: env.DATABASE_AUTH_TOKEN });
 await migrateDb(db);
 console.log('[armilla] migrations applied');
 if (await seedDemo(db)) console.log('[armilla] demo data seeded (password for every demo account: armilla-demo)');
-client.close();
+db.close();
 
 const children: ChildProcess[] = [];
 let smtpUrl = env.SMTP_URL;
