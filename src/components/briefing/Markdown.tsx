@@ -1,63 +1,34 @@
-/** Renders the safe Markdown subset as React elements: no innerHTML anywhere. */
-import { Fragment, type ReactNode } from 'react';
-import { parseMarkdown, type Inline } from '../../lib/markdown';
+/**
+ * Shows Markdown that people typed (captions, descriptions, comments) with the subset and sanitiser of
+ * src/lib/markdown. The renderer is a chunk of its own, fetched the first time a Markdown text is shown
+ * (or ahead of that with `preloadMarkdown`, e.g. once the sky has drawn its first frame): a viewer link's
+ * first frame does not wait for it. Until it has arrived the text shows as typed.
+ */
+import { lazy, Suspense } from 'react';
+import { MD_BOX } from './markdown-box';
 
-function inline(nodes: Inline[]): ReactNode[] {
-  return nodes.map((n, i) => {
-    switch (n.t) {
-      case 'text':
-        return <Fragment key={i}>{n.v}</Fragment>;
-      case 'br':
-        return <br key={i} />;
-      case 'code':
-        return (
-          <code key={i} className="rounded bg-ink-800 px-1 font-mono text-[0.9em]">
-            {n.v}
-          </code>
-        );
-      case 'strong':
-        return <strong key={i}>{inline(n.c)}</strong>;
-      case 'em':
-        return <em key={i}>{inline(n.c)}</em>;
-      case 'link':
-        return (
-          <a key={i} href={n.href} rel="noopener noreferrer nofollow" target="_blank" className="text-brass-300 underline hover:text-brass-200">
-            {inline(n.c)}
-          </a>
-        );
-    }
-  });
+const load = () => import('./MarkdownHtml');
+const MarkdownHtml = lazy(load);
+const MarkdownPlain = lazy(() => load().then((m) => ({ default: m.MarkdownPlain })));
+
+/** Starts fetching the renderer before a Markdown text is on screen. */
+export function preloadMarkdown(): void {
+  void load();
 }
 
 export function Markdown({ source, className = '' }: { source: string; className?: string }) {
-  const blocks = parseMarkdown(source);
   return (
-    <div className={`flex flex-col gap-2 leading-relaxed ${className}`}>
-      {blocks.map((b, i) =>
-        b.t === 'p' ? (
-          <p key={i}>{inline(b.c)}</p>
-        ) : b.t === 'h' ? (
-          b.level === 1 ? (
-            <h3 key={i} className="text-lg font-semibold">{inline(b.c)}</h3>
-          ) : b.level === 2 ? (
-            <h4 key={i} className="text-base font-semibold">{inline(b.c)}</h4>
-          ) : (
-            <h5 key={i} className="text-sm font-semibold uppercase tracking-wide">{inline(b.c)}</h5>
-          )
-        ) : b.t === 'ul' ? (
-          <ul key={i} className="list-disc pl-5">
-            {b.items.map((it, k) => (
-              <li key={k}>{inline(it)}</li>
-            ))}
-          </ul>
-        ) : (
-          <ol key={i} start={b.start} className="list-decimal pl-5">
-            {b.items.map((it, k) => (
-              <li key={k}>{inline(it)}</li>
-            ))}
-          </ol>
-        ),
-      )}
-    </div>
+    <Suspense fallback={<div className={`${MD_BOX} whitespace-pre-wrap ${className}`}>{source}</div>}>
+      <MarkdownHtml source={source} className={className} />
+    </Suspense>
+  );
+}
+
+/** The plain text of a Markdown text (for one-line previews); as typed until the renderer has arrived. */
+export function MarkdownText({ source }: { source: string }) {
+  return (
+    <Suspense fallback={source}>
+      <MarkdownPlain source={source} />
+    </Suspense>
   );
 }

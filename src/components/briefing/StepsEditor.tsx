@@ -3,10 +3,9 @@ import { useId, useState } from 'react';
 import type { Pin, Step } from '../../lib/contracts/scene-doc';
 import type { SceneOut } from '../../lib/contracts/scene';
 import { inputUtcToIso, isoToInputUtc, moveItem, newId, formatInZone } from '../../lib/client/scene-view';
-import { markdownToText } from '../../lib/markdown';
 import { Button } from '../ui/Button';
 import { INPUT, LABEL } from '../scenes/controls';
-import { Markdown } from './Markdown';
+import { Markdown, MarkdownText } from './Markdown';
 
 function StepForm({ step, pins, onSave, onCancel, scene }: { step: Step; pins: Pin[]; onSave: (s: Step) => void; onCancel: () => void; scene: SceneOut }) {
   const id = useId();
@@ -167,7 +166,7 @@ export function StepsEditor({ scene, onChange, readOnly, onPresent, onShowStep, 
                   )}
                 </div>
               </div>
-              {st.caption && <p className="line-clamp-2 text-xs text-ink-300">{markdownToText(st.caption)}</p>}
+              {st.caption && <p className="line-clamp-2 text-xs text-ink-300"><MarkdownText source={st.caption} /></p>}
             </li>
           ),
         )}

@@ -3,7 +3,7 @@
  * the sky on a phone), follow the presenter (the audience's stage), and for reviewer links comments.
  */
 import { useChartComments, useSharedScene } from '../../lib/client/queries';
-import { lazy, Suspense, useMemo, useState } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { QueryRoot } from '../ui/QueryRoot';
 import { Button } from '../ui/Button';
 import { Alert } from '../ui/Alert';
@@ -16,7 +16,7 @@ import { Section, Tabs } from './controls';
 import { ExportPanel } from './ExportPanel';
 import { AudienceStage, FollowBadge, useFollow } from '../briefing/Presenter';
 import { SkyWorkspace } from '../stage/SkyWorkspace';
-import { Markdown } from '../briefing/Markdown';
+import { Markdown, preloadMarkdown } from '../briefing/Markdown';
 import { useComments, type ReviewAccess } from '../review/comments';
 import { chartComments, nightRevision } from '../night/mount';
 
@@ -42,6 +42,10 @@ function Shared({ token, embed }: { token: string; embed: boolean }) {
   const pins = useChartComments(token, !!q.data && !reviewer && !embed);
   const markers = useMemo(() => (reviewer ? commentMarkers(comments.data ?? []) : []), [reviewer, comments.data]);
   const follow = useFollow(following ? `/api/shared/${encodeURIComponent(token)}/presenter/stream` : null);
+  // Captions and comments are Markdown: its renderer is fetched once the sky has drawn its first frame.
+  useEffect(() => {
+    if (!embed) void afterFirstFrame().then(preloadMarkdown);
+  }, [embed]);
 
   if (q.isPending) return <p className="p-4 text-sm text-ink-300">Loading the scene…</p>;
   if (q.isError)

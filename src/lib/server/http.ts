@@ -91,14 +91,21 @@ const JSON_TYPE = /^application\/(?:[\w.-]+\+)?json\s*(?:;|$)/i;
 
 /**
  * Reads at most `capBytes` of a body: refused from Content-Length when it is announced, otherwise as soon
- * as the streamed count passes the cap (a chunked body is never buffered whole first).
+ * as the streamed count passes the cap (a chunked body is never buffered whole first). Refused from the
+ * header, the body is never read (Node discards what the client still sends, so the connection stays
+ * usable); refused mid-stream, the stream is cancelled and the answer closes the connection (RFC 9112 §9.6).
+ * `tooLarge` makes the 413 (an upload names its own field and limit).
  */
-export async function readBodyCapped(request: Request, capBytes: number): Promise<Uint8Array> {
+export async function readBodyCapped(
+  request: Request,
+  capBytes: number,
+  tooLarge: (closeConnection: boolean) => HttpError = (close) => new HttpError(413, 'too_large', 'Request body too large.', undefined, undefined, close ? { connection: 'close' } : undefined),
+): Promise<Uint8Array<ArrayBuffer>> {
   const declared = request.headers.get('content-length');
-  if (declared !== null && Number(declared) > capBytes) throw new HttpError(413, 'too_large', 'Request body too large.');
+  if (declared !== null && Number(declared) > capBytes) throw tooLarge(false);
   if (!request.body) return new Uint8Array(0);
   const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
+  const chunks: Uint8Array<ArrayBuffer>[] = [];
   let total = 0;
   for (;;) {
     const { done, value } = await reader.read();
@@ -106,7 +113,7 @@ export async function readBodyCapped(request: Request, capBytes: number): Promis
     total += value.byteLength;
     if (total > capBytes) {
       await reader.cancel().catch(() => {});
-      throw new HttpError(413, 'too_large', 'Request body too large.', undefined, undefined, { connection: 'close' });
+      throw tooLarge(true);
     }
     chunks.push(value);
   }

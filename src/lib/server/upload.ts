@@ -3,17 +3,13 @@
  * announced, and otherwise while streaming, as soon as the count passes the cap — never buffered whole
  * first. Multipart bodies are then read with the standard Request.formData().
  */
-import { HttpError } from './http';
+import { HttpError, readBodyCapped } from './http';
 import { FileError, MAX_IMPORT_BYTES, type RowError } from '../imports/csv';
 
 /** Multipart framing (boundaries, part headers, small form fields) allowed on top of the file cap. */
 const MULTIPART_OVERHEAD = 64 * 1024;
 
-/**
- * 413. Refused from the header, the app never reads the body (Node discards what the client still sends,
- * so the connection stays usable). Refused mid-stream, the body stream is cancelled, so the connection is
- * closed after the answer (RFC 9112 §9.6).
- */
+/** The upload's 413: names the field and the limit; closes the connection when refused mid-stream (see readBodyCapped). */
 export const tooLarge = (capBytes: number, closeConnection = false) =>
   new HttpError(
     413,
@@ -25,31 +21,7 @@ export const tooLarge = (capBytes: number, closeConnection = false) =>
   );
 
 /** Reads the request body into memory, refusing with 413 once it passes `capBytes`. */
-export async function readCapped(request: Request, capBytes: number): Promise<Uint8Array<ArrayBuffer>> {
-  const declared = request.headers.get('content-length');
-  if (declared !== null && Number(declared) > capBytes) throw tooLarge(capBytes);
-  if (!request.body) return new Uint8Array(0);
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > capBytes) {
-      await reader.cancel().catch(() => {});
-      throw tooLarge(capBytes, true);
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let off = 0;
-  for (const c of chunks) {
-    out.set(c, off);
-    off += c.byteLength;
-  }
-  return out;
-}
+export const readCapped = (request: Request, capBytes: number) => readBodyCapped(request, capBytes, (close) => tooLarge(capBytes, close));
 
 export interface Upload {
   bytes: Uint8Array<ArrayBuffer>;
