@@ -179,7 +179,9 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       viewBox={`0 0 ${width} ${height}`}
       width={fixedSize ? width : '100%'}
       height={fixedSize ? height : undefined}
-      role="img"
+      // a picture when it is only looked at; a group when it holds the time slider (an img's content is
+      // presentational, so a control inside it would be hidden from assistive technology)
+      role={onCursor || onPick || onPoint ? 'group' : 'img'}
       aria-labelledby={`${id}-t ${id}-d`}
       data-testid="altitude-chart"
       style={{ display: 'block', maxWidth: fixedSize ? undefined : '100%', height: fixedSize ? undefined : 'auto', fontFamily: 'system-ui, sans-serif', background: c(SURFACE.panel) }}
