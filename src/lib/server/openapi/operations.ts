@@ -197,6 +197,6 @@ export const OPERATIONS: Operation[] = [
   // ---------- service ----------
   { method: 'get', path: '/api/me', tag: 'Service', who: 'signed-in', summary: 'Who you are', ok: { status: 200, description: 'You and your teams', schema: meSchema } },
   { method: 'patch', path: '/api/me', tag: 'Service', who: 'signed-in', summary: 'Change your name', body: { schema: profileInput }, ok: { status: 200, description: 'As `GET /api/me`', schema: meSchema } },
-  { method: 'get', path: '/api/health', tag: 'Service', who: 'anyone', summary: 'Service health', description: 'The database answers; compute pool and cache figures.', ok: { status: 200, description: '`{ok: true, compute, caches}`' } },
+  { method: 'get', path: '/api/health', tag: 'Service', who: 'anyone', summary: 'Service health', description: 'The database answers; compute pool, cache and database-writer figures.', ok: { status: 200, description: '`{ok: true, compute, caches, writes}`' } },
   { method: 'get', path: '/api/openapi.json', tag: 'Service', who: 'anyone', summary: 'This description (OpenAPI 3.1)', ok: { status: 200, description: 'The OpenAPI document' } },
 ];
