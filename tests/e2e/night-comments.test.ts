@@ -5,12 +5,25 @@
  * puts the target's altitude (checked in screen pixels against the drawn plot area), and reading the
  * marker gives the comment's text. The form can also be opened and filled from the keyboard.
  */
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { expect } from 'vitest';
 import type { Locator, Page } from 'playwright-core';
 import { DEMO } from '../integration/helpers/client';
 import { browserTest, e2eWorld, newPage, screenshot } from './helpers/browser';
 
 const world = e2eWorld();
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
+
+/** axe-core's serious and critical findings inside the night panel (the chart, the comment form and list). */
+async function axeNightPanel(page: Page): Promise<string[]> {
+  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(AXE_SOURCE);
+  return page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Element, opts: object) => Promise<{ violations: { id: string; impact: string; help: string; nodes: { target: string[] }[] }[] }> } }).axe;
+    const r = await axe.run(document.querySelector('[data-testid=night-panel]')!, { resultTypes: ['violations'] });
+    return r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id} (${v.help}): ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+  });
+}
 const SITE = { name: 'Night comment test site', lat: 37.2, lon: -3.6, height: 2800, timeZone: 'Europe/Madrid' };
 const TARGETS = [
   { id: 't1', kind: 'custom', name: 'Field A', ra: 83.8221, dec: -5.3911 },
@@ -105,6 +118,7 @@ browserTest('a reviewer pins a comment to the altitude chart; a viewer link and 
   // the point being commented on is marked on the chart while the form is open
   expect(await revChart.locator('[data-part=pending-comment]').count()).toBe(1);
   await screenshot(rev.page, 'night-comment-form-1440x900');
+  expect(await axeNightPanel(rev.page)).toEqual([]);
   await form.getByRole('button', { name: 'Post comment' }).click();
   await form.waitFor({ state: 'detached' });
   await revChart.locator('g[data-comment]').first().waitFor({ timeout: 20_000 });
@@ -145,6 +159,7 @@ browserTest('a reviewer pins a comment to the altitude chart; a viewer link and 
   await checkMarker(viewer.page, viewChart, 'viewer link');
   expect(await viewer.page.getByTestId('chart-comment-open').count()).toBe(0);
   await screenshot(viewer.page, 'night-comment-viewer-1440x900');
+  expect(await axeNightPanel(viewer.page)).toEqual([]);
 
   // ---- the editor's workspace; and the form from the keyboard ----
   await editor.page.goto(`/scenes/${sceneId}`);
@@ -157,7 +172,7 @@ browserTest('a reviewer pins a comment to the altitude chart; a viewer link and 
   // the focus lands on the target choice; arrow keys change it, Tab reaches the time steps and the comment
   expect(await editor.page.evaluate(() => document.activeElement?.getAttribute('data-testid'))).toBe('chart-comment-target');
   const before = await edForm.getByTestId('chart-comment-time').textContent();
-  await edForm.getByRole('button', { name: /minutes later/ }).focus();
+  await edForm.getByRole('button', { name: '+5 min' }).focus();
   await editor.page.keyboard.press('Enter');
   expect(await edForm.getByTestId('chart-comment-time').textContent()).not.toBe(before);
   await edForm.getByRole('textbox', { name: 'Comment', exact: true }).focus();

@@ -1,6 +1,6 @@
 /**
  * A tour of every page a user meets, at a laptop (1440 × 900) and a phone (390 × 844): landing, sky,
- * sign-in, dashboard, each demo scene, a handout, new scene, account, a viewer link, a reviewer link, the
+ * sign-in, the API page, dashboard, each demo scene, a handout, new scene, account, a viewer link, a reviewer link, the
  * presenter and a follower of the presentation. Each page fails the tour on a console error (a
  * Content-Security-Policy violation is reported as one), an uncaught error, a failed request (network failure or 4xx/5xx answer), a horizontal scrollbar, or — on the
  * presenter's and the follower's stage — any element drawn over the step's caption. Every page is also
@@ -165,7 +165,7 @@ for (const vp of VIEWPORTS) {
 
       // Without an account.
       const anon = await context(browser, vp);
-      for (const [name, path] of [['landing', '/'], ['sky', '/sky'], ['sign-in', '/sign-in'], ['viewer-link', d.viewer], ['reviewer-link', d.reviewer]] as const) {
+      for (const [name, path] of [['landing', '/'], ['sky', '/sky'], ['sign-in', '/sign-in'], ['viewer-link', d.viewer], ['reviewer-link', d.reviewer], ['api-docs', '/docs/api']] as const) {
         problems.push(...(await visit(anon.page, anon.w, vp.name, name, () => anon.page.goto(path))));
       }
 

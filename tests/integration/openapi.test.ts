@@ -122,7 +122,8 @@ describe('GET /api/openapi.json', () => {
         expect(op.security, where).toContainEqual({ bearerToken: [scope] });
         expect(op.security, where).toContainEqual({ sessionCookie: [] });
         for (const [status, res] of Object.entries<any>(op.responses)) {
-          if (Number(status) >= 400) expect(res.content['application/json'].schema, `${where} ${status}`).toEqual({ $ref: '#/components/schemas/Error' });
+          const answer = res.$ref ? doc.components.responses[res.$ref.replace('#/components/responses/', '')] : res;
+          if (Number(status) >= 400) expect(answer.content['application/json'].schema, `${where} ${status}`).toEqual({ $ref: '#/components/schemas/Error' });
         }
         expect(op.responses['401'], where).toBeDefined();
       }
@@ -157,6 +158,9 @@ describe('GET /api/openapi.json', () => {
     // Shapes used by several operations are described once: the scene body's targets refer to Target.
     expect(patch.properties.targets.items).toEqual({ $ref: '#/components/schemas/Target' });
     expect(deref(patch.properties.targets.items).oneOf).toHaveLength(3);
+    // A scene answer: the Scene shape, with the version a PATCH must send back.
+    const got = deref(doc.paths['/api/scenes/{id}'].get.responses['200'].content['application/json'].schema);
+    expect(deref(got.properties.scene).required).toEqual(expect.arrayContaining(['id', 'teamId', 'version', 'site', 'time', 'targets']));
     // The compute API's body keeps its limits (API contract: lat −90..90).
     const windows = doc.paths['/api/sky/windows'].post.requestBody.content['application/json'].schema;
     expect(windows.properties.site.properties.lat).toMatchObject({ type: 'number', minimum: -90, maximum: 90 });

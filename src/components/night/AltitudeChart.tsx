@@ -78,6 +78,23 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
     return { bands, limits, curves, moon, bodies };
   }, [data, from, to]);
 
+  // path strings and window-edge ticks, made once per data and size (a highlight or cursor redraw reuses them)
+  const drawn = useMemo(
+    () => ({
+      curves: prepared.curves.map((cv) => ({
+        paths: cv.runs.map((r) => path(r.points) ?? ''),
+        edges: cv.windows
+          .flatMap((w) => [w.start, w.end])
+          .map((e) => Date.parse(e))
+          .filter((t) => t > from && t < to)
+          .map((t) => ({ x: x(t), y: y(altitudeAt(data.targets[cv.i].samples, t)) })),
+      })),
+      moon: prepared.moon.map((r) => path(r.points) ?? ''),
+      bodies: prepared.bodies.map((b) => b.runs.map((r) => path(r.points) ?? '')),
+    }),
+    [prepared, path, data, from, to, x, y],
+  );
+
   const summary = useMemo(() => nightSummary(data, timeZone), [data, timeZone]);
   const name = title ?? `Altitude over time, ${clock(from, timeZone)} to ${clock(to, timeZone)} ${timeZone}, ${data.targets.length} target${data.targets.length === 1 ? '' : 's'}`;
   const ticks = hourTicks(from, to, timeZone, (to - from) / 3600000 > 14 ? 2 : 1);
@@ -162,7 +179,9 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       viewBox={`0 0 ${width} ${height}`}
       width={fixedSize ? width : '100%'}
       height={fixedSize ? height : undefined}
-      role="img"
+      // a picture when it is only looked at; a group when it holds the time slider (an img's content is
+      // presentational, so a control inside it would be hidden from assistive technology)
+      role={onCursor || onPick || onPoint ? 'group' : 'img'}
       aria-labelledby={`${id}-t ${id}-d`}
       data-testid="altitude-chart"
       style={{ display: 'block', maxWidth: fixedSize ? undefined : '100%', height: fixedSize ? undefined : 'auto', fontFamily: 'system-ui, sans-serif', background: c(SURFACE.panel) }}
@@ -226,14 +245,14 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       <g clipPath={`url(#${id}-clip)`} fill="none" strokeLinejoin="round" strokeLinecap="round">
         <g data-part="moon">
           <title>{moonLabel}</title>
-          {prepared.moon.map((r, i) => (
-            <path key={i} d={path(r.points) ?? ''} stroke={moonInk} strokeWidth={1.6} strokeDasharray="1 5" opacity={0.9} />
+          {prepared.moon.map((_, i) => (
+            <path key={i} d={drawn.moon[i]} stroke={moonInk} strokeWidth={1.6} strokeDasharray="1 5" opacity={0.9} />
           ))}
         </g>
-        {prepared.bodies.map((b) => (
+        {prepared.bodies.map((b, bi) => (
           <g key={b.body} data-part="body" data-body={b.body}>
-            {b.runs.map((r, i) => (
-              <path key={i} d={path(r.points) ?? ''} stroke={c(BODIES.planet)} strokeWidth={1.4} strokeDasharray="6 3 1 3" />
+            {b.runs.map((_, i) => (
+              <path key={i} d={drawn.bodies[bi][i]} stroke={c(BODIES.planet)} strokeWidth={1.4} strokeDasharray="6 3 1 3" />
             ))}
           </g>
         ))}
@@ -246,7 +265,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
               {cv.runs.map((r, i) => (
                 <path
                   key={i}
-                  d={path(r.points) ?? ''}
+                  d={drawn.curves[cv.i].paths[i]}
                   stroke={r.inside ? c(s) : c(s)}
                   strokeWidth={r.inside ? (hot ? 3.6 : s.widthPx + 0.4) : 1.1}
                   strokeDasharray={r.inside ? dashArray(s.pattern) : '1 3'}
@@ -254,12 +273,9 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
                   data-inside={r.inside ? 'true' : 'false'}
                 />
               ))}
-              {cv.windows.flatMap((w) => [w.start, w.end]).map((e, i) => {
-                const t = Date.parse(e);
-                if (t <= from || t >= to) return null;
-                const a = altitudeAt(data.targets[cv.i].samples, t);
-                return <line key={`e${i}`} x1={x(t)} x2={x(t)} y1={y(a) - 5} y2={y(a) + 5} stroke={c(s)} strokeWidth={2} data-part="window-edge" />;
-              })}
+              {drawn.curves[cv.i].edges.map((e, i) => (
+                <line key={`e${i}`} x1={e.x} x2={e.x} y1={e.y - 5} y2={e.y + 5} stroke={c(s)} strokeWidth={2} data-part="window-edge" />
+              ))}
               {cv.best.inWindow && <circle cx={x(Date.parse(cv.best.time))} cy={y(cv.best.altitude)} r={hot ? 4.5 : 3} fill={c(s)} stroke={c(SURFACE.panel)} strokeWidth={1} />}
             </g>
           );

@@ -106,7 +106,7 @@ export function NightPanel({ source, timeZone, revision, cursor, onCursor, comme
             Download PNG
           </button>
           {composer && data && data.targets.length > 0 && (
-            <button type="button" aria-expanded={draft !== null} aria-controls={formId} className="rounded border border-ink-600 px-2 py-1 hover:bg-white/5" data-testid="chart-comment-open" onClick={() => openDraft()}>
+            <button type="button" aria-expanded={draft !== null} aria-controls={draft !== null ? formId : undefined} className="rounded border border-ink-600 px-2 py-1 hover:bg-white/5" data-testid="chart-comment-open" onClick={() => openDraft()}>
               Comment on the chart
             </button>
           )}
@@ -177,13 +177,13 @@ export function NightPanel({ source, timeZone, revision, cursor, onCursor, comme
                 <span className="flex flex-col gap-1 text-xs text-ink-300">
                   Time ({timeZone})
                   <span className="flex items-center gap-1">
-                    <button type="button" className="rounded border border-ink-600 px-2 py-1 text-ink-100 hover:bg-white/5" aria-label={`${data.step} minutes earlier`} onClick={() => setDraft({ ...draft, time: Math.max(Date.parse(data.from), draft.time - data.step * 60000) })}>
+                    <button type="button" className="rounded border border-ink-600 px-2 py-1 text-ink-100 hover:bg-white/5" onClick={() => setDraft({ ...draft, time: Math.max(Date.parse(data.from), draft.time - data.step * 60000) })}>
                       −{data.step} min
                     </button>
                     <output className="min-w-[4.5rem] text-center font-mono text-sm text-ink-100" data-testid="chart-comment-time">
                       {clock(draft.time, timeZone)}
                     </output>
-                    <button type="button" className="rounded border border-ink-600 px-2 py-1 text-ink-100 hover:bg-white/5" aria-label={`${data.step} minutes later`} onClick={() => setDraft({ ...draft, time: Math.min(Date.parse(data.to), draft.time + data.step * 60000) })}>
+                    <button type="button" className="rounded border border-ink-600 px-2 py-1 text-ink-100 hover:bg-white/5" onClick={() => setDraft({ ...draft, time: Math.min(Date.parse(data.to), draft.time + data.step * 60000) })}>
                       +{data.step} min
                     </button>
                   </span>

@@ -214,6 +214,22 @@ export function applyPatch(doc: SceneDoc, b: ScenePatchBody): SceneDoc {
   return next;
 }
 
+/** `SceneOut` as a schema, for the API description (the two checks below fail to compile when they drift). */
+export const sceneOutSchema = sceneDocSchema.extend({
+  id: z.string(),
+  teamId: z.string(),
+  version: z.number().int().describe('increases by one with every change; send it back with a PATCH'),
+  createdBy: z.string().nullable(),
+  updatedBy: z.string().nullable(),
+  createdAt: isoUtc,
+  updatedAt: isoUtc,
+  hasThumbnail: z.boolean(),
+});
+const _outFitsSchema: z.infer<typeof sceneOutSchema> = {} as SceneOut;
+const _schemaFitsOut: SceneOut = {} as z.infer<typeof sceneOutSchema>;
+void _outFitsSchema;
+void _schemaFitsOut;
+
 /** The scene as a guest of a share link sees it. */
 export type PublicScene = Omit<SceneOut, 'createdBy' | 'updatedBy'>;
 

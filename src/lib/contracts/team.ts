@@ -1,6 +1,6 @@
 /** Teams, members and the signed-in user's summary, as the API returns them. */
 import { z } from 'zod';
-import type { Role } from './roles';
+import { ROLES, type Role } from './roles';
 import { isoUtc } from './scene-doc';
 
 /** `GET /api/teams/:teamId/activity?limit=&before=`. */
@@ -49,3 +49,14 @@ export interface ActivityOut {
   user: { id: string; name: string } | null;
   detail: Record<string, unknown>;
 }
+
+/** `GET /api/me` as a schema, for the API description (checked against `Me` below). */
+export const meSchema = z.object({
+  user: z.object({ id: z.string(), email: z.string(), name: z.string() }),
+  teams: z.array(z.object({ id: z.string(), name: z.string(), role: z.enum(ROLES) })),
+  emailVerified: z.boolean(),
+});
+const _meFits: Me = {} as z.infer<typeof meSchema>;
+const _schemaFitsMe: Omit<z.infer<typeof meSchema>, 'emailVerified'> = {} as Me;
+void _meFits;
+void _schemaFitsMe;

@@ -40,7 +40,8 @@ export interface OperationDoc {
   tags?: string[];
   parameters?: { name: string; in: string; required?: boolean; description?: string; schema?: JsonSchema }[];
   requestBody?: { content: Record<string, MediaType> };
-  responses: Record<string, { description: string; content?: Record<string, MediaType> }>;
+  /** Refusals refer to `components.responses` (`$ref`); the success answer is written out. */
+  responses: Record<string, { description: string; content?: Record<string, MediaType>; $ref?: string }>;
   'x-token-scope'?: 'read' | 'write';
   'x-access'?: string;
 }

@@ -138,7 +138,7 @@ export function airmassTicks(values: readonly number[] = [1.0, 1.1, 1.2, 1.5, 2,
 
 /** Offset of a time zone from UTC at an instant, minutes (east positive). */
 export function zoneOffsetMin(t: number, timeZone: string): number {
-  const parts = new Intl.DateTimeFormat('en-GB', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' }).formatToParts(new Date(t));
+  const parts = formatter(timeZone, 'parts').formatToParts(new Date(t));
   const p: Record<string, number> = {};
   for (const x of parts) if (x.type !== 'literal') p[x.type] = Number(x.value);
   const asUtc = Date.UTC(p.year, p.month - 1, p.day, p.hour % 24, p.minute, p.second);
@@ -155,9 +155,27 @@ export function hourTicks(from: number, to: number, timeZone: string, everyH = 1
   return out;
 }
 
+/**
+ * One Intl.DateTimeFormat per zone and use, made once: making one costs far more than formatting with it,
+ * and a chart formats dozens of instants on every redraw.
+ */
+const formatters = new Map<string, Intl.DateTimeFormat>();
+function formatter(timeZone: string, use: 'clock' | 'parts'): Intl.DateTimeFormat {
+  const key = `${use} ${timeZone}`;
+  let f = formatters.get(key);
+  if (!f) {
+    f =
+      use === 'clock'
+        ? new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' })
+        : new Intl.DateTimeFormat('en-GB', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+    formatters.set(key, f);
+  }
+  return f;
+}
+
 /** "21:30" in the site's zone. */
 export function clock(t: number, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(new Date(t));
+  return formatter(timeZone, 'clock').format(new Date(t));
 }
 
 /** Moon phase in words from the Sun–Moon longitude difference (0 new … 180 full). */

@@ -31,7 +31,8 @@ const bodyList = z
       return z.NEVER;
     }
     return [...new Set(names)] as BodyName[];
-  });
+  })
+  .describe(`extra bodies to sample for the chart, comma-separated: ${BODY_NAMES.join(', ')}`);
 
 export const nightQuerySchema = z
   .object({ from: isoUtc.optional(), to: isoUtc.optional(), at: isoUtc.optional(), step: stepMinutes, bodies: bodyList })

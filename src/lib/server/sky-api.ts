@@ -216,3 +216,46 @@ export function windowsResponse(b: WindowsBody) {
     stepSec,
   };
 }
+
+// ---------- answers, as schemas for the API description (each checked against its function at compile time)
+
+const deg = (what: string) => z.number().describe(what);
+export const observeAnswerSchema = z.object({
+  azimuth: deg('degrees from north through east'),
+  altitude: deg('degrees; apparent (refracted) unless refraction=none'),
+  hourAngle: deg('hours, −12 to 12'),
+  raOfDate: deg('apparent right ascension of date, degrees'),
+  decOfDate: deg('apparent declination of date, degrees'),
+  lst: deg('local apparent sidereal time, hours'),
+  airmass: z.number().nullable().describe('Kasten & Young (1989); null below the horizon'),
+  constellation: z.string().describe('IAU three-letter abbreviation'),
+  time: z.string(),
+  refraction: z.enum(['none', 'standard']),
+  earthOrientation: z.object({ dut1: z.number(), xp: z.number(), yp: z.number() }),
+  distanceKm: z.number().optional(),
+  magnitude: z.number().optional(),
+  illuminatedFraction: z.number().optional(),
+  phaseAngle: z.number().optional(),
+  elongation: z.number().optional(),
+});
+export const eventsAnswerSchema = z.object({
+  events: z.array(z.object({ kind: z.string().describe('rise, transit, set; for the Sun also civil-, nautical- and astronomical-dawn and -dusk'), time: z.string() })),
+  alwaysUp: z.boolean(),
+  alwaysDown: z.boolean(),
+});
+export const windowsAnswerSchema = z.object({
+  targets: z.array(
+    z.object({
+      name: z.string(),
+      windows: z.array(z.object({ start: z.string(), end: z.string(), openedBy: z.string(), closedBy: z.string() })),
+      reasons: z.array(z.string()).describe('the limits that keep the target out, most frequent first'),
+    }),
+  ),
+  stepSec: z.number().describe('grid step of the search, seconds (crossings refined to 1 s)'),
+});
+const _observeFits: z.infer<typeof observeAnswerSchema> = {} as ReturnType<typeof observeResponse>;
+const _eventsFits: z.infer<typeof eventsAnswerSchema> = {} as ReturnType<typeof eventsResponse>;
+const _windowsFits: z.infer<typeof windowsAnswerSchema> = {} as ReturnType<typeof windowsResponse>;
+void _observeFits;
+void _eventsFits;
+void _windowsFits;

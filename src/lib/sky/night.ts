@@ -23,7 +23,7 @@ import { bodyVector, type BodyName } from './bodies';
 import { unitVectors, unitVectorsToEnu } from './stars';
 import { apparentAltitudeDeg } from './refraction';
 import { airmassKastenYoung } from './airmass';
-import { skyEvents } from './events';
+import { riseTransitSet, skyEvents } from './events';
 import { visibilityWindows, type WindowTarget } from './windows';
 import type { Envelope } from './envelope';
 import type { SiteInput } from './frames';
@@ -124,12 +124,23 @@ export function windowsGridStepSec(spanMs: number, nTargets: number): number {
   return Math.min(1800, Math.max(base, Math.ceil(needed / 60) * 60));
 }
 
-/** The night around an instant (see the header): [sunset, sunrise] in ms, rounded out to whole minutes. */
+/**
+ * The night around an instant (see the header): [sunset, sunrise] in ms, rounded out to whole minutes.
+ * The Sun's rises and sets are searched from a day before `at`; most nights are settled by the first two
+ * days of that search, so those are scanned first (the same sample grid, so the same event times) and the
+ * third day only when the night is not settled by then (polar day or night, or a long one).
+ */
 export function sceneNight(site: NightSite, at: Date): { from: number; to: number; polar: boolean } {
   const s = siteInputOf(site);
   const t = at.getTime();
   const day = 86400000;
-  const ev = skyEvents(s, { body: 'sun' }, new Date(t - day), new Date(t + 2 * day)).events;
+  const from = new Date(t - day);
+  return nightAround(riseTransitSet(s, { body: 'sun' }, from, new Date(t + day)), t, true) ?? nightAround(riseTransitSet(s, { body: 'sun' }, from, new Date(t + 2 * day)), t, false)!;
+}
+
+/** The night from the Sun's rises and sets around t; null (when `partial`) if the list does not settle it. */
+function nightAround(ev: readonly { kind: string; time: Date }[], t: number, partial: boolean): { from: number; to: number; polar: boolean } | null {
+  const day = 86400000;
   const sets = ev.filter((e) => e.kind === 'set').map((e) => e.time.getTime());
   const rises = ev.filter((e) => e.kind === 'rise').map((e) => e.time.getTime());
   const lastSet = sets.filter((x) => x <= t).pop();
@@ -137,6 +148,7 @@ export function sceneNight(site: NightSite, at: Date): { from: number; to: numbe
   const sunDown = lastSet !== undefined && (lastRise === undefined || lastSet > lastRise);
   const start = sunDown ? lastSet! : sets.find((x) => x > t);
   const end = start !== undefined ? rises.find((x) => x > start) : undefined;
+  if (partial && (start === undefined || end === undefined)) return null;
   if (start === undefined || end === undefined || end - start > day || (!sunDown && start - t > day)) {
     return { from: Math.floor((t - day / 2) / 60000) * 60000, to: Math.floor((t - day / 2) / 60000) * 60000 + day, polar: true };
   }

@@ -202,6 +202,9 @@ function azRateWithin(trueAltDeg: number): number {
   return c > 1e-9 ? OMEGA_DEG_S / c : Infinity;
 }
 
+/** What the star transform and the evaluators read of a sky frame (a SkyFrame has it all). */
+type GridFrame = Pick<SkyFrame, 'icrsToEnu' | 'sunToObs' | 'vObs' | 'bm1' | 'sinLat' | 'cosLat'>;
+
 /** Per-grid-instant constants of the star transform (as unitVectorsToEnu computes them). */
 interface GridConsts {
   inv1bm1: number;
@@ -216,7 +219,7 @@ function gridConsts(f: SkyFrame): GridConsts {
  * ENU of one catalogue unit vector u[k..k+2] at a grid instant: the same arithmetic, in the same order,
  * as unitVectorsToEnu (stars.ts), so the result is bit-identical to the batched transform.
  */
-function enuAtGrid(f: SkyFrame, g: GridConsts, u: Float64Array, k: number, out: Float64Array): void {
+function enuAtGrid(f: GridFrame, g: GridConsts, u: Float64Array, k: number, out: Float64Array): void {
   const m = f.icrsToEnu;
   const ex = f.sunToObs[0], ey = f.sunToObs[1], ez = f.sunToObs[2];
   const vx = f.vObs[0], vy = f.vObs[1], vz = f.vObs[2];
@@ -425,7 +428,7 @@ function makeCountEvaluator(env: Envelope) {
   const hold = new Float64Array(1);
   // margin and rate of each limit in LIMITS order (NaN: not evaluated)
   const mm = new Float64Array(LIMITS.length), rr = new Float64Array(LIMITS.length);
-  const evaluate = (f: SkyFrame, enu: Float64Array, sun: Float64Array | null, moon: Float64Array | null): number => {
+  const evaluate = (f: GridFrame, enu: Float64Array, sun: Float64Array | null, moon: Float64Array | null): number => {
     const E = enu[0], N = enu[1], U = enu[2];
     const trueAlt = Math.atan2(U, Math.sqrt(E * E + N * N)) * RAD;
     const alt = trueAlt + refractionForTrueAltitudeDeg(trueAlt, k);
@@ -570,9 +573,9 @@ export function visibilityWindows(site: SiteInput, env: Envelope, targets: Windo
   };
 
   const grid = makeGridEvaluator(env);
-  // every grid instant is kept: the reasons of targets that end with no window are counted over all of them
-  const states: GridState[] = [];
-  const consts: GridConsts[] = [];
+  // what the reasons of targets that end with no window are counted from, at every grid instant (a few
+  // hundred bytes each: the frame itself is not kept)
+  const kept: { t: number; f: GridFrame; g: GridConsts; sun: Float64Array | null; moon: Float64Array | null }[] = [];
   /** Fixed targets: their state is known (unchanged since the last evaluation) before this instant (ms). */
   const knownUntil = new Float64Array(n).fill(-Infinity);
   const lastEval = new Int32Array(n).fill(-1);
@@ -583,8 +586,8 @@ export function visibilityWindows(site: SiteInput, env: Envelope, targets: Windo
   for (let k = 0; k < times.length; k++) {
     const cur = gridState(times[k]);
     const cc = gridConsts(cur.f);
-    states.push(cur);
-    consts.push(cc);
+    const f = cur.f;
+    kept.push({ t: cur.t, f: { icrsToEnu: f.icrsToEnu, sunToObs: f.sunToObs, vObs: f.vObs, bm1: f.bm1, sinLat: f.sinLat, cosLat: f.cosLat }, g: cc, sun: cur.sun, moon: cur.moon });
     for (let i = 0; i < n; i++) {
       const tg = targets[i];
       const isBody = 'body' in tg;
@@ -637,13 +640,13 @@ export function visibilityWindows(site: SiteInput, env: Envelope, targets: Windo
   for (let i = 0; i < n; i++) {
     if ('body' in targets[i] || open[i] !== null || result[i].windows.length) continue;
     const j = fixedPos[i] * 3;
-    for (let k = 0; k < states.length; ) {
-      const g = states[k];
-      enuAtGrid(g.f, consts[k], u, j, one);
+    for (let k = 0; k < kept.length; ) {
+      const g = kept[k];
+      enuAtGrid(g.f, g.g, u, j, one);
       const v = counter.evaluate(g.f, one, g.sun, g.moon);
       const until = g.t + counter.hold[0] * 1000;
       let k2 = k + 1;
-      while (k2 < states.length && states[k2].t < until) k2++;
+      while (k2 < kept.length && kept[k2].t < until) k2++;
       if (v !== NONE) violatedCount[i * LIMITS.length + v] += k2 - k;
       k = k2;
     }

@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { nightData, sceneNight, MAX_NIGHT_SPAN_MS } from '../../../src/lib/sky/night';
 import { visibilityWindows } from '../../../src/lib/sky/windows';
 import { windowsStepSec } from '../../../src/lib/server/sky-api';
+import { skyEvents } from '../../../src/lib/sky/events';
 
 const site = { name: 'Test site', lat: 37.2, lon: -3.6, height: 2800, timeZone: 'Europe/Madrid' };
 const siteInput = { latDeg: 37.2, lonDeg: -3.6, heightM: 2800 };
@@ -92,4 +93,38 @@ describe('night data: shape and consistency', () => {
     }
     expect(d.targets[3].best.inWindow).toBe(false);
   });
+});
+
+describe('sceneNight: the two-day search first gives the night the three-day search gives', () => {
+  /** sceneNight as it was before the two-stage search: one 3-day search with every Sun event. */
+  function sceneNightBefore(s: { lat: number; lon: number; height: number }, at: Date) {
+    const site = { latDeg: s.lat, lonDeg: s.lon, heightM: s.height };
+    const t = at.getTime();
+    const day = 86400000;
+    const ev = skyEvents(site, { body: 'sun' }, new Date(t - day), new Date(t + 2 * day)).events;
+    const sets = ev.filter((e) => e.kind === 'set').map((e) => e.time.getTime());
+    const rises = ev.filter((e) => e.kind === 'rise').map((e) => e.time.getTime());
+    const lastSet = sets.filter((x) => x <= t).pop();
+    const lastRise = rises.filter((x) => x <= t).pop();
+    const sunDown = lastSet !== undefined && (lastRise === undefined || lastSet > lastRise);
+    const start = sunDown ? lastSet! : sets.find((x) => x > t);
+    const end = start !== undefined ? rises.find((x) => x > start) : undefined;
+    if (start === undefined || end === undefined || end - start > day || (!sunDown && start - t > day)) {
+      return { from: Math.floor((t - day / 2) / 60000) * 60000, to: Math.floor((t - day / 2) / 60000) * 60000 + day, polar: true };
+    }
+    return { from: Math.floor(start / 60000) * 60000, to: Math.ceil(end / 60000) * 60000, polar: false };
+  }
+  let seed = 99;
+  const r = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+  it('over random sites (polar ones included) and instants', () => {
+    let polar = 0;
+    for (let i = 0; i < 24; i++) {
+      const s = { lat: i < 6 ? (i % 2 ? -1 : 1) * (67 + r() * 20) : -66 + r() * 132, lon: -180 + r() * 360, height: r() * 4000 };
+      const at = new Date(Date.UTC(2024, 0, 1) + r() * 3 * 365 * 86400000);
+      const now = sceneNight({ name: 'x', ...s, timeZone: 'UTC' }, at);
+      expect(now, `${JSON.stringify(s)} ${at.toISOString()}`).toEqual(sceneNightBefore(s, at));
+      if (now.polar) polar++;
+    }
+    expect(polar).toBeGreaterThan(0); // the fall-back path ran too
+  }, 60_000);
 });

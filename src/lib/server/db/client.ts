@@ -16,7 +16,8 @@
  * Runs outside Astro too (npm start, the test harness), so it imports no astro:* module.
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
-import { open } from 'node:fs/promises';
+import { fstatSync } from 'node:fs';
+import { open, type FileHandle } from 'node:fs/promises';
 import { createClient, type Client } from '@libsql/client';
 import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
 import * as schema from './schema';
@@ -158,6 +159,7 @@ export async function openDb(url = DEFAULT_DATABASE_URL, opts: OpenOptions | str
   const readDb: RawDb = drizzle(reader, { schema, casing: 'snake_case' });
   const reads = preparedReads(url, reader, READ_BUSY_TIMEOUT_MS);
 
+  const syncer = offLoop ? fileSyncer(`${path}-wal`) : null;
   // Local file: every write transaction goes through the queue (see write-queue.ts).
   const queue =
     path !== null
@@ -167,7 +169,7 @@ export async function openDb(url = DEFAULT_DATABASE_URL, opts: OpenOptions | str
             await writer.reconnect();
             await setUpWriter();
           },
-          ...(offLoop ? { sync: () => fsyncFile(`${path}-wal`) } : {}),
+          ...(syncer ? { sync: syncer.sync } : {}),
         })
       : null;
   const jobClient = {
@@ -227,6 +229,7 @@ export async function openDb(url = DEFAULT_DATABASE_URL, opts: OpenOptions | str
     exclusive,
     writeStats: stats,
     close() {
+      syncer?.close();
       reads.close();
       if (reader !== writer) reader.close();
       writer.close();
@@ -238,15 +241,26 @@ export async function openDb(url = DEFAULT_DATABASE_URL, opts: OpenOptions | str
 
 /**
  * fsync of a file on libuv's thread pool (the event loop goes on meanwhile). fsync applies to the
- * file, not the descriptor, so this flushes what SQLite's connection wrote to it.
+ * file, not the descriptor, so this flushes what SQLite's connection wrote to it. The file stays open
+ * between calls; it is opened again if it was deleted meanwhile (SQLite deletes the WAL only when the
+ * last connection to the database closes).
  */
-async function fsyncFile(file: string): Promise<void> {
-  const fh = await open(file, 'r');
-  try {
-    await fh.sync();
-  } finally {
-    await fh.close();
-  }
+function fileSyncer(file: string) {
+  let handle: FileHandle | null = null;
+  return {
+    async sync(): Promise<void> {
+      if (handle && fstatSync(handle.fd).nlink === 0) {
+        await handle.close().catch(() => {});
+        handle = null;
+      }
+      handle ??= await open(file, 'r');
+      await handle.sync();
+    },
+    close() {
+      void handle?.close().catch(() => {});
+      handle = null;
+    },
+  };
 }
 
 const isTx = (db: DbOrTx): db is Tx => typeof (db as Tx).rollback === 'function';

@@ -26,6 +26,19 @@ export const apiErrorSchema = z.object({
   }),
 });
 
+/** Each refusal is described once under `components.responses` by this name. */
+const ERROR_NAME: Record<number, string> = {
+  400: 'BadRequest',
+  401: 'Unauthorized',
+  403: 'Forbidden',
+  404: 'NotFound',
+  409: 'Conflict',
+  413: 'TooLarge',
+  415: 'UnsupportedMediaType',
+  422: 'Unprocessable',
+  429: 'TooManyRequests',
+};
+
 const ERROR_TEXT: Record<number, string> = {
   400: 'A parameter or a body field is invalid; `field` names it. Nothing was changed.',
   401: 'Not signed in, or the token is unknown or revoked.',
@@ -95,6 +108,10 @@ function build() {
   for (const [schema, name] of NAMED_SCHEMAS) memo.set(schema, registry.register(name, docSchema(schema, memo)));
   const doc = (schema: ZodTypeAny) => docSchema(schema, memo);
 
+  for (const [status, name] of Object.entries(ERROR_NAME)) {
+    registry.registerComponent('responses', name, { description: ERROR_TEXT[Number(status)]!, content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } });
+  }
+
   const seen = new Set<string>();
   for (const op of OPERATIONS) {
     const key = `${op.method} ${op.path}`;
@@ -103,7 +120,7 @@ function build() {
     seen.add(key);
     const scope = scopeNeeded(op.method, op.path);
     const params = pathParams(op.path);
-    const responses: Record<string, { description: string; content?: Record<string, { schema: ZodTypeAny | object }> }> = {};
+    const responses: Record<string, { description: string; content?: Record<string, { schema: ZodTypeAny | object }> } | { $ref: string }> = {};
     const okType = op.ok.type ?? 'application/json';
     responses[String(op.ok.status)] =
       op.ok.status === 204
@@ -112,7 +129,7 @@ function build() {
           ? { description: op.ok.description, content: { 'application/json': { schema: errorRef } } }
           : { description: op.ok.description, content: { [okType]: { schema: op.ok.schema ? doc(op.ok.schema) : okType === 'application/json' ? { type: 'object' } : { type: 'string' } } } };
     for (const status of errorStatuses(op)) {
-      responses[String(status)] = { description: ERROR_TEXT[status] ?? 'Refused.', content: { 'application/json': { schema: errorRef } } };
+      responses[String(status)] = { $ref: `#/components/responses/${ERROR_NAME[status]}` };
     }
     registry.registerPath({
       method: op.method,

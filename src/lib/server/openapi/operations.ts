@@ -7,10 +7,11 @@
  */
 import { z, type ZodTypeAny } from 'zod';
 import type { Role } from '../../contracts/roles';
-import { activityQuerySchema } from '../../contracts/team';
+import { activityQuerySchema, meSchema } from '../../contracts/team';
 import { siteCreateSchema, sitePatchSchema } from '../../contracts/site';
 import { envelopeCreateSchema, envelopePatchSchema } from '../../contracts/envelope';
-import { restoreSchema, sceneCreateSchema, sceneListQuerySchema, scenePatchSchema } from '../../contracts/scene';
+import { restoreSchema, sceneCreateSchema, sceneListQuerySchema, sceneOutSchema, scenePatchSchema } from '../../contracts/scene';
+import { ROLES } from '../../contracts/roles';
 import { anchorSchema, commentCreateSchema, commentPatchSchema, guestCommentSchema } from '../../contracts/comment';
 import { cameraSchema, layersSchema, pinSchema, siteSchema, stepSchema, targetSchema } from '../../contracts/scene-doc';
 import { envelopeSchema } from '../../contracts/envelope';
@@ -24,7 +25,7 @@ import { sceneFileSchema } from '../../exports/scene-json';
 import { profileInput } from '../accounts';
 import { invitationInput, roleInput, teamInput } from '../teams';
 import { positionsQuerySchema, windowsCsvQuerySchema } from '../exports/responses';
-import { eventsQuerySchema, observeQuerySchema, windowsBodySchema } from '../sky-api';
+import { eventsAnswerSchema, eventsQuerySchema, observeAnswerSchema, observeQuerySchema, windowsAnswerSchema, windowsBodySchema } from '../sky-api';
 
 /**
  * Schemas that several operations share, described once under `components.schemas` by these names and
@@ -40,6 +41,7 @@ export const NAMED_SCHEMAS: [ZodTypeAny, string][] = [
   [envelopeSchema, 'Envelope'],
   [anchorSchema, 'Anchor'],
   [sceneFileSchema, 'SceneFile'],
+  [sceneOutSchema, 'Scene'],
   [nightAnswerSchema, 'NightAnswer'],
   [placeSchema, 'Place'],
 ];
@@ -90,6 +92,8 @@ const horizonUpload = z.object({
   convention: z.enum(HORIZON_CONVENTIONS).optional().describe('azimuth convention: north-east (default), south (from south through west) or signed (−180..180, east +)'),
 });
 const sceneImportJson = z.object({ teamId: z.string().describe('the team that receives the new scene'), file: sceneFileSchema });
+const sceneAnswer = z.object({ scene: sceneOutSchema });
+const sceneWithRole = z.object({ scene: sceneOutSchema, role: z.enum(ROLES).describe('your role in its team') });
 const png = z.string().describe('PNG image (binary)');
 
 const CSV = 'text/csv';
@@ -101,13 +105,13 @@ const SSE = 'text/event-stream';
 export const OPERATIONS: Operation[] = [
   // ---------- scenes ----------
   { method: 'get', path: '/api/scenes', tag: 'Scenes', who: 'signed-in', summary: "List your teams' scenes", description: 'Newest change first; `teamId` keeps one team.', query: sceneListQuerySchema, ok: { status: 200, description: '`{scenes: [{id, teamId, title, description, time, version, updatedAt, createdAt, siteName, createdBy}]}`' } },
-  { method: 'post', path: '/api/scenes', tag: 'Scenes', who: 'editor', summary: 'Create a scene', description: 'Editor or owner of `teamId`. Give `site` or a saved `siteId`; `fromSceneId` duplicates a scene, the fields given override the copy.', body: { schema: sceneCreateSchema }, ok: { status: 201, description: '`{scene}` with `version: 1`' } },
-  { method: 'post', path: '/api/scenes/import', tag: 'Scenes', who: 'editor', summary: 'Import a scene file', description: 'An `armilla-scene` file (format version 1) becomes a new scene of `teamId`: as JSON `{teamId, file}`, or multipart with fields `file` and `teamId`.', body: { schema: sceneImportJson }, ok: { status: 201, description: '`{scene}`' }, errors: [413, 415, 422] },
-  { method: 'get', path: '/api/scenes/{id}', tag: 'Scenes', who: 'viewer', summary: 'Read a scene', ok: { status: 200, description: '`{scene, role}`: the scene document with its id, version and times, and your role in its team' } },
-  { method: 'patch', path: '/api/scenes/{id}', tag: 'Scenes', who: 'editor', summary: 'Change a scene', description: 'Send `version` (the one you read) and the fields to change. A stale `version` answers 409 `version_conflict` with the current scene.', body: { schema: scenePatchSchema }, ok: { status: 200, description: '`{scene}` with the version increased by one' }, errors: [409, 413] },
+  { method: 'post', path: '/api/scenes', tag: 'Scenes', who: 'editor', summary: 'Create a scene', description: 'Editor or owner of `teamId`. Give `site` or a saved `siteId`; `fromSceneId` duplicates a scene, the fields given override the copy.', body: { schema: sceneCreateSchema }, ok: { status: 201, description: '`{scene}` with `version: 1`', schema: sceneAnswer } },
+  { method: 'post', path: '/api/scenes/import', tag: 'Scenes', who: 'editor', summary: 'Import a scene file', description: 'An `armilla-scene` file (format version 1) becomes a new scene of `teamId`: as JSON `{teamId, file}`, or multipart with fields `file` and `teamId`.', body: { schema: sceneImportJson }, ok: { status: 201, description: '`{scene}`', schema: sceneAnswer }, errors: [413, 415, 422] },
+  { method: 'get', path: '/api/scenes/{id}', tag: 'Scenes', who: 'viewer', summary: 'Read a scene', ok: { status: 200, description: '`{scene, role}`: the scene document with its id, version and times, and your role in its team', schema: sceneWithRole } },
+  { method: 'patch', path: '/api/scenes/{id}', tag: 'Scenes', who: 'editor', summary: 'Change a scene', description: 'Send `version` (the one you read) and the fields to change. A stale `version` answers 409 `version_conflict` with the current scene.', body: { schema: scenePatchSchema }, ok: { status: 200, description: '`{scene}` with the version increased by one', schema: sceneAnswer }, errors: [409, 413] },
   { method: 'delete', path: '/api/scenes/{id}', tag: 'Scenes', who: 'editor', summary: 'Delete a scene', ok: { status: 204, description: 'Deleted' } },
   { method: 'get', path: '/api/scenes/{id}/versions', tag: 'Scenes', who: 'viewer', summary: "A scene's history", ok: { status: 200, description: '`{versions: [{version, authorId, authorName, createdAt, title}], current}`, newest first' } },
-  { method: 'post', path: '/api/scenes/{id}/versions/{n}/restore', tag: 'Scenes', who: 'editor', summary: 'Restore an earlier version', description: 'Makes a new version with the content of version `n`; an optional `version` guards against a stale view (409).', body: { schema: restoreSchema }, ok: { status: 200, description: '`{scene}`' }, errors: [409] },
+  { method: 'post', path: '/api/scenes/{id}/versions/{n}/restore', tag: 'Scenes', who: 'editor', summary: 'Restore an earlier version', description: 'Makes a new version with the content of version `n`; an optional `version` guards against a stale view (409).', body: { schema: restoreSchema }, ok: { status: 200, description: '`{scene}`', schema: sceneAnswer }, errors: [409] },
   { method: 'get', path: '/api/scenes/{id}/thumbnail', tag: 'Scenes', who: 'viewer', summary: 'The preview image sent by the editor', ok: { status: 200, description: 'PNG', type: 'image/png', schema: png } },
   { method: 'put', path: '/api/scenes/{id}/thumbnail', tag: 'Scenes', who: 'editor', summary: 'Replace the preview image', description: 'A PNG of at most 2 MB (the signature is checked); the scene keeps its version.', body: { schema: png, type: 'image/png' }, ok: { status: 204, description: 'Stored' }, errors: [413, 415] },
   { method: 'get', path: '/api/scenes/{id}/thumbnail.png', tag: 'Scenes', who: 'viewer', summary: "The scene's thumbnail, drawn by the server", ok: { status: 200, description: 'PNG', type: 'image/png', schema: png } },
@@ -182,17 +186,17 @@ export const OPERATIONS: Operation[] = [
   { method: 'get', path: '/api/calendars/{token}.ics', tag: 'Teams', who: 'anyone', summary: "A team's calendar subscription", description: 'The secret URL is the credential: one event per upcoming scene, with its site and a link.', ok: { status: 200, description: 'iCalendar', type: ICS } },
 
   // ---------- sky computation ----------
-  { method: 'get', path: '/api/sky/observe', tag: 'Sky computation', who: 'anyone', summary: 'Where a body or star is seen from a site', description: 'Apparent topocentric place: azimuth, altitude (refracted unless `refraction=none`), hour angle, place of date, sidereal time, airmass, constellation. Give `body`, or `ra` and `dec` (ICRS, degrees) with optional space motion.', query: observeQuerySchema, ok: { status: 200, description: '`{azimuth, altitude, hourAngle, raOfDate, decOfDate, lst, airmass, constellation, …}`' } },
-  { method: 'get', path: '/api/sky/events', tag: 'Sky computation', who: 'anyone', summary: 'Rise, transit, set and twilights', description: 'Over `from` to `to` (at most 31 days), in time order.', query: eventsQuerySchema, ok: { status: 200, description: '`{events: [{kind, time}], alwaysUp, alwaysDown}`' } },
-  { method: 'post', path: '/api/sky/windows', tag: 'Sky computation', who: 'anyone', summary: 'Visibility windows inside an envelope', description: 'For each target, the intervals when it is inside the envelope, crossings refined to 1 s; `reasons` name the limit that closes each window. A read token may call it.', body: { schema: windowsBodySchema }, ok: { status: 200, description: '`{targets: [{name, windows: [{start, end, openedBy, closedBy}], reasons}], stepSec}`' }, errors: [413, 415] },
+  { method: 'get', path: '/api/sky/observe', tag: 'Sky computation', who: 'anyone', summary: 'Where a body or star is seen from a site', description: 'Apparent topocentric place: azimuth, altitude (refracted unless `refraction=none`), hour angle, place of date, sidereal time, airmass, constellation. Give `body`, or `ra` and `dec` (ICRS, degrees) with optional space motion.', query: observeQuerySchema, ok: { status: 200, description: 'The apparent place', schema: observeAnswerSchema } },
+  { method: 'get', path: '/api/sky/events', tag: 'Sky computation', who: 'anyone', summary: 'Rise, transit, set and twilights', description: 'Over `from` to `to` (at most 31 days), in time order.', query: eventsQuerySchema, ok: { status: 200, description: 'The events in time order', schema: eventsAnswerSchema } },
+  { method: 'post', path: '/api/sky/windows', tag: 'Sky computation', who: 'anyone', summary: 'Visibility windows inside an envelope', description: 'For each target, the intervals when it is inside the envelope, crossings refined to 1 s; `reasons` name the limit that closes each window. A read token may call it.', body: { schema: windowsBodySchema }, ok: { status: 200, description: 'Each target’s windows', schema: windowsAnswerSchema }, errors: [413, 415] },
 
   // ---------- places ----------
   { method: 'get', path: '/api/places', tag: 'Places', who: 'anyone', summary: 'Search towns', description: 'Prefix matches first, accent- and case-insensitive, ranked by population. Places from GeoNames (CC BY 4.0).', query: placesQuerySchema, ok: { status: 200, description: 'Matching towns', schema: placesResponseSchema } },
   { method: 'get', path: '/api/places/zone', tag: 'Places', who: 'anyone', summary: 'The time zone at a point', query: zoneQuerySchema, ok: { status: 200, description: 'An IANA zone name', schema: zoneResponseSchema } },
 
   // ---------- service ----------
-  { method: 'get', path: '/api/me', tag: 'Service', who: 'signed-in', summary: 'Who you are', ok: { status: 200, description: '`{user: {id, email, name}, teams: [{id, name, role}], emailVerified}`' } },
-  { method: 'patch', path: '/api/me', tag: 'Service', who: 'signed-in', summary: 'Change your name', body: { schema: profileInput }, ok: { status: 200, description: 'As `GET /api/me`' } },
-  { method: 'get', path: '/api/health', tag: 'Service', who: 'anyone', summary: 'Service health', description: 'The database answers; compute pool and cache figures.', ok: { status: 200, description: '`{ok: true, compute, caches}`' } },
+  { method: 'get', path: '/api/me', tag: 'Service', who: 'signed-in', summary: 'Who you are', ok: { status: 200, description: 'You and your teams', schema: meSchema } },
+  { method: 'patch', path: '/api/me', tag: 'Service', who: 'signed-in', summary: 'Change your name', body: { schema: profileInput }, ok: { status: 200, description: 'As `GET /api/me`', schema: meSchema } },
+  { method: 'get', path: '/api/health', tag: 'Service', who: 'anyone', summary: 'Service health', description: 'The database answers; compute pool, cache and database-writer figures.', ok: { status: 200, description: '`{ok: true, compute, caches, writes}`' } },
   { method: 'get', path: '/api/openapi.json', tag: 'Service', who: 'anyone', summary: 'This description (OpenAPI 3.1)', ok: { status: 200, description: 'The OpenAPI document' } },
 ];
