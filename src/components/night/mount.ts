@@ -1,5 +1,6 @@
 /** Small helpers the scene pages use to mount the night panel. */
-import { chartPins, type CommentOut } from '../../lib/contracts/comment';
+import type { CommentOut } from '../../lib/contracts/comment';
+import { chartPins } from '../../lib/contracts/chart-pins';
 import type { ChartComment } from './AltitudeChart';
 
 /** What the night depends on, as one string (refetch when it changes; the scene time alone does not). */

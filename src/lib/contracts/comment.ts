@@ -47,23 +47,4 @@ export interface CommentOut {
  * A comment pinned to a point of the altitude chart, as everyone who sees the chart gets it (viewer links
  * too: `GET /api/shared/:token/chart-comments`): the comment's text and author's name, nothing else.
  */
-export interface ChartCommentOut {
-  id: string;
-  target: string;
-  time: string;
-  body: string;
-  author: string;
-  resolved: boolean;
-  createdAt: string;
-}
-
-/** The top-level comments with a chart anchor, in the list's order. */
-export function chartPins(comments: readonly CommentOut[]): ChartCommentOut[] {
-  const out: ChartCommentOut[] = [];
-  for (const c of comments) {
-    const a = c.anchor;
-    if (c.parentId || !a || !('chart' in a)) continue;
-    out.push({ id: c.id, target: a.target, time: a.time, body: c.body, author: c.author.name, resolved: c.resolved, createdAt: c.createdAt });
-  }
-  return out;
-}
+export { chartPins, type ChartCommentOut } from './chart-pins';
