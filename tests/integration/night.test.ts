@@ -224,4 +224,24 @@ describe('comments pinned to the altitude chart', () => {
     expect(bad.data.error.field).toMatch(/^anchor/);
     expect((await viewer.get(`/api/scenes/${sceneId}/comments`)).data.comments.length).toBe(before);
   });
+
+  it('the pinned comment is on the downloaded SVG (member and link) and numbered on the handout with its text listed', async () => {
+    // Field A's altitude at the pinned instant, from the night API at a 1-minute step around it.
+    const n = await viewer.get(`/api/scenes/${sceneId}/night?from=2026-03-20T21:00:00Z&to=2026-03-20T22:00:00Z&step=1`);
+    const fieldA = n.data.targets.find((t: { name: string }) => t.name === 'Field A');
+    const at = fieldA.samples.find((p: { time: string }) => p.time === '2026-03-20T21:30:00Z');
+    expect(at.altitude).toBeGreaterThan(0);
+    for (const url of [`/api/scenes/${sceneId}/night.svg`, `/api/shared/${token}/night.svg`]) {
+      const r = await (url.startsWith('/api/shared') ? anon : viewer).get(url);
+      expect(r.status).toBe(200);
+      const svg = String(r.data);
+      const marker = /<g data-comment="[^"]+" data-target="Field A" data-time="2026-03-20T21:30:00Z"><path d="M([\d.]+),([\d.]+) /.exec(svg);
+      expect(marker, url).not.toBeNull();
+      expect(svg).toMatch(/<title>1\. [^<]*Field A is best here — Field A at 22:30/); // Europe/Madrid, UTC+1
+    }
+    const handout = await viewer.get(`/scenes/${sceneId}/handout`);
+    expect(handout.status).toBe(200);
+    const html = String(handout.data);
+    expect(html).toMatch(/data-testid="handout-chart-comments"[^>]*><li>Field A at 22:30: Field A is best here — /);
+  });
 });

@@ -44,11 +44,13 @@ export interface AltitudeChartProps {
   title?: string;
   /** Width and height attributes in px (for a standalone SVG file) instead of filling the container. */
   fixedSize?: boolean;
+  /** Number the comment markers 1, 2, … in list order (paper: the handout lists the texts under the chart). */
+  numbered?: boolean;
 }
 
 const M = { top: 14, right: 46, bottom: 30, left: 40 };
 
-export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, height = 400, cursor = null, onCursor, highlight = null, comments = [], onPick, picking = false, onPoint, onEnter, pending = null, title, fixedSize = false }: AltitudeChartProps) {
+export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, height = 400, cursor = null, onCursor, highlight = null, comments = [], onPick, picking = false, onPoint, onEnter, pending = null, title, fixedSize = false, numbered = false }: AltitudeChartProps) {
   const id = useId().replace(/[^a-zA-Z0-9_-]/g, '');
   // render-to-commit time of each drawing, as a performance entry `night-chart` (read by tests/bench/night.bench.ts)
   const renderStart = typeof performance !== 'undefined' ? performance.now() : 0;
@@ -306,7 +308,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
         })()}
       </g>
       <g data-part="comments">
-        {comments.map((cm) => {
+        {comments.map((cm, i) => {
           const tg = data.targets.find((t) => t.name === cm.target);
           const t = Date.parse(cm.time);
           if (!tg || !(t >= from && t <= to)) return null;
@@ -315,7 +317,12 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
           return (
             <g key={cm.id} data-comment={cm.id} data-target={cm.target} data-time={cm.time}>
               <path d={`M${cx},${cy} l-6,-12 h12 z`} fill={cm.resolved ? c(SURFACE.panel) : c(PLAN.comment)} stroke={cm.resolved ? c(PLAN.comment) : c(SURFACE.panel)} strokeWidth={cm.resolved ? 1.5 : 1} />
-              <title>{`${cm.author ? `${cm.author}: ` : ''}${cm.body} — ${cm.target} at ${clock(t, timeZone)}${cm.resolved ? ' (resolved)' : ''}`}</title>
+              {numbered && (
+                <text x={cx} y={cy - 16} textAnchor="middle" fontSize={11} fontWeight={700} fill={c(PLAN.comment)} paintOrder="stroke" stroke={c(SURFACE.panel)} strokeWidth={3}>
+                  {i + 1}
+                </text>
+              )}
+              <title>{`${numbered ? `${i + 1}. ` : ''}${cm.author ? `${cm.author}: ` : ''}${cm.body} — ${cm.target} at ${clock(t, timeZone)}${cm.resolved ? ' (resolved)' : ''}`}</title>
             </g>
           );
         })}

@@ -2,6 +2,7 @@
  * Review comments on a scene: by team members (reviewer+) or by guests on a reviewer link.
  * Bodies are Markdown kept as text; the API never returns HTML.
  */
+import { chartPins, type ChartCommentOut } from '../contracts/chart-pins';
 import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm';
 import { nanoid } from 'nanoid';
 import { writeTx, type DbOrTx } from './db/client';
@@ -46,6 +47,11 @@ async function namesOf(db: DbOrTx, ids: (string | null)[]) {
   if (!wanted.length) return new Map<string, string>();
   const rows = await db.select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted));
   return new Map(rows.map((r) => [r.id, r.name]));
+}
+
+/** The top-level comments pinned to the altitude chart (downloads and handouts draw them), as guests see them. */
+export async function chartCommentsOf(db: DbOrTx, sceneId: string): Promise<ChartCommentOut[]> {
+  return chartPins(await listComments(db, sceneId, true));
 }
 
 export async function listComments(db: DbOrTx, sceneId: string, forGuest = false): Promise<CommentOut[]> {

@@ -4,11 +4,12 @@
  */
 import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
-import { AltitudeChart } from '../../components/night/AltitudeChart';
+import { AltitudeChart, type ChartComment } from '../../components/night/AltitudeChart';
 import type { NightAnswer } from '../sky/night';
 
-export function altitudeChartSvg(data: NightAnswer, timeZone: string, cursor: number | null): string {
-  const svg = renderToStaticMarkup(createElement(AltitudeChart, { data, timeZone, ink: 'print', fixedSize: true, width: 960, height: 440, cursor }));
+/** The chart with the comments pinned to it: numbered markers, each with its text as the marker's title. */
+export function altitudeChartSvg(data: NightAnswer, timeZone: string, cursor: number | null, comments: ChartComment[] = []): string {
+  const svg = renderToStaticMarkup(createElement(AltitudeChart, { data, timeZone, ink: 'print', fixedSize: true, width: 960, height: 440, cursor, comments, numbered: true }));
   return `<?xml version="1.0" encoding="UTF-8"?>\n${svg}\n`;
 }
 
