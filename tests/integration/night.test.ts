@@ -242,6 +242,9 @@ describe('comments pinned to the altitude chart', () => {
     const handout = await viewer.get(`/scenes/${sceneId}/handout`);
     expect(handout.status).toBe(200);
     const html = String(handout.data);
-    expect(html).toMatch(/data-testid="handout-chart-comments"[^>]*><li>Field A at 22:30: Field A is best here — /);
+    const list = /data-testid="handout-chart-comments"[^>]*>(.*?)<\/ol>/s.exec(html);
+    expect(list, 'the handout lists the chart comments').not.toBeNull();
+    expect(list![1]).toMatch(/<li[^>]*>Field A at 22:30[^<]*: Field A is best here — /);
+    expect(html).toMatch(/<title>1\. [^<]*Field A is best here/);
   });
 });
