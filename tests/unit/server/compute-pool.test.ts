@@ -4,11 +4,11 @@
  * a job past its time budget ends in 422 and the thread is replaced, a full queue answers 503 with
  * Retry-After, and the event loop of this thread stays free while a worker computes.
  */
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildComputeWorker } from '../../../src/lib/server/compute/build.mjs';
-import { ComputePool, type ComputeConfig } from '../../../src/lib/server/compute';
+import { ComputePool, workerEntry, type ComputeConfig } from '../../../src/lib/server/compute';
 import { runJob } from '../../../src/lib/server/compute/jobs';
 import { HttpError } from '../../../src/lib/server/http';
 import { windowsBodySchema } from '../../../src/lib/server/sky-api';
@@ -99,5 +99,15 @@ describe('compute pool (worker threads)', () => {
 
   it('refuses an unknown job', () => {
     expect(() => runJob('nope' as never, {} as never)).toThrow(/unknown compute job/);
+  });
+});
+
+describe('the thread entry', () => {
+  it('is a CommonJS file that loads the ES bundle with import(), so piscina never require()s an ES module', () => {
+    const entry = workerEntry(workerFile);
+    expect(entry).toBe(workerFile.replace(/\.mjs$/, '.cjs'));
+    const text = readFileSync(entry, 'utf8');
+    expect(text).toContain("import('./compute-worker.mjs')");
+    expect(text).not.toMatch(/require\(/);
   });
 });

@@ -77,6 +77,12 @@ export function findWorkerFile(from = import.meta.url): string | null {
   return null;
 }
 
+/** The file piscina starts a thread on: the CommonJS entry beside the bundle when there is one. */
+export function workerEntry(bundle: string): string {
+  const cjs = bundle.replace(/\.mjs$/, '') + '.cjs';
+  return bundle.endsWith('.mjs') && existsSync(cjs) ? cjs : bundle;
+}
+
 export function computeConfig(): ComputeConfig {
   const threads = envInt('COMPUTE_THREADS', Math.max(1, Math.min(4, availableParallelism() - 1)), 0, 64);
   return {
@@ -118,7 +124,8 @@ export class ComputePool {
   constructor(readonly config: ComputeConfig) {
     if (config.workerFile) {
       this.piscina = new Piscina({
-        filename: pathToFileURL(config.workerFile).href,
+        // The CommonJS entry beside the bundle (build.mjs, commonJsEntryOf): no require() of an ES module.
+        filename: pathToFileURL(workerEntry(config.workerFile)).href,
         minThreads: config.threads,
         maxThreads: config.threads,
         // Our own queue (below) hands piscina a job only when a thread is free; this one only holds a job
