@@ -16,6 +16,7 @@ import { C_AU_PER_DAY, EARTH_ROT_RAD_PER_S, SUN_SCHWARZSCHILD_AU, WGS84_A_M, WGS
 import { earthRotationAngleDeg, gastHours, gmstHours, instantFromDate } from './timescales';
 import { enuFromOfDateForSite, npbMatrix, type SiteInput } from './frames';
 import { hasMotion, moveStar, type SpaceMotion } from './motion';
+import { nodeInterpolator } from './ephemeris-nodes';
 import { STANDARD_CONSTANTS, apparentAltitudeDeg, type RefractionConstants, type RefractionMode } from './refraction';
 
 export interface SkyFrame {
@@ -83,6 +84,17 @@ function sunBarycentricVelocity(time: Astronomy.AstroTime): [number, number, num
   return sunVelCache.v;
 }
 
+/** The Earth's heliocentric state (au, au/day; EQJ = ICRS axes) from astronomy-engine, at 3-hour nodes of its TT, cubic between (within 0.2 m). */
+const earthStateBetween = nodeInterpolator(6, 1 / 8, (tt) => {
+  const s = Astronomy.HelioState(Astronomy.Body.Earth, Astronomy.AstroTime.FromTerrestrialTime(tt));
+  return [s.x, s.y, s.z, s.vx, s.vy, s.vz];
+});
+const earthState = new Float64Array(6);
+export function earthHelioState(tt: number): { x: number; y: number; z: number; vx: number; vy: number; vz: number } {
+  const s = earthStateBetween(tt, earthState);
+  return { x: s[0], y: s[1], z: s[2], vx: s[3], vy: s[4], vz: s[5] };
+}
+
 export interface SkyFrameOptions {
   refraction?: RefractionConstants;
   /** Observer at the geocentre (no diurnal aberration or parallax): geocentric apparent places. */
@@ -122,7 +134,7 @@ export function skyFrame(site: SiteInput, date: Date, opts: SkyFrameOptions = {}
   for (let i = 0; i < 3; i++) vDiurnal[i] /= cMs;
 
   const astroTime = Astronomy.MakeTime(date);
-  const helio = Astronomy.HelioState(Astronomy.Body.Earth, astroTime);
+  const helio = earthHelioState(astroTime.tt);
   const sunV = sunBarycentricVelocity(astroTime);
   const vObs = Float64Array.of(
     (helio.vx + sunV[0]) / C_AU_PER_DAY + vDiurnal[0],

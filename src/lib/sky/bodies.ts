@@ -5,8 +5,8 @@
  * heliocentric position (Earth + site), light time (the planet taken at t − τ), then aberration with the
  * observer's total velocity (apparent.ts), and the engine's own N·P·B and Earth rotation, so bodies and
  * stars share one frame. Within 1″ of JPL DE405 + IAU SOFA (tests/unit/sky/bodies-de405.test.ts).
- * Moon: astronomy-engine's geocentric Moon (light time and annual aberration), made topocentric by the
- * engine and given diurnal aberration here; within 2″ of DE405.
+ * Moon: astronomy-engine's geocentric Moon series, made topocentric with the
+ * frame's own observer position (WGS84, UT1 and polar motion) and given diurnal aberration; within 2″ of DE405.
  * Light deflection is neglected for bodies (< 0.1″ beyond 5° from the Sun).
  */
 import { Astronomy } from './astronomy';
@@ -14,6 +14,7 @@ import { DEG, RAD, wrap360 } from './math';
 import { KM_PER_AU, MOON_RADIUS_KM } from './constants';
 import { aberrate, addDiurnalAberration, describeEnu, skyFrame, type HorizontalPlace, type SkyFrame } from './apparent';
 import { heliocentricIcrs, type SeriesBody } from './planets/series';
+import { nodeInterpolator } from './ephemeris-nodes';
 import { C_AU_PER_DAY } from './constants';
 import { mulVec } from './math';
 import type { SiteInput } from './frames';
@@ -51,6 +52,16 @@ export interface BodyVector {
 }
 
 const scratchE = [0, 0, 0];
+const scratchM = [0, 0, 0];
+
+/**
+ * The Moon's geometric geocentric position (au, EQJ = ICRS axes), astronomy-engine's series at hourly
+ * nodes of its TT and cubic between them (ephemeris-nodes.ts; within a metre of the series).
+ */
+export const moonGeocentric = nodeInterpolator(3, 1 / 24, (tt) => {
+  const v = Astronomy.GeoMoon(Astronomy.AstroTime.FromTerrestrialTime(tt));
+  return [v.x, v.y, v.z];
+});
 const scratchP = [0, 0, 0];
 
 /**
@@ -98,10 +109,10 @@ export function bodyVector(f: SkyFrame, body: BodyName): BodyVector {
   let p: [number, number, number];
   let d: number;
   if (body === 'moon') {
-    const eq = Astronomy.Equator(Astronomy.Body.Moon, f.astroTime, f.observer, false, true);
-    const v = eq.vec;
-    d = Math.hypot(v.x, v.y, v.z);
-    p = [v.x / d, v.y / d, v.z / d];
+    const g = moonGeocentric(f.astroTime.tt, scratchM);
+    const x = g[0] - f.obsGeoAu[0], y = g[1] - f.obsGeoAu[1], z = g[2] - f.obsGeoAu[2];
+    d = Math.hypot(x, y, z);
+    p = [x / d, y / d, z / d];
     addDiurnalAberration(f, p);
   } else {
     const g = geometricFromObserver(f, body, [0, 0, 0]);

@@ -7,6 +7,7 @@
  */
 import { ARCSEC, DEG } from './math';
 import { DAYS_PER_CENTURY } from './constants';
+import { nodeInterpolator } from './ephemeris-nodes';
 
 /**
  * One term a row: multipliers of l, l′, F, D, Ω, then in 0.1 µas: longitude sin, its rate per
@@ -102,12 +103,8 @@ export interface Nutation {
   dEpsRad: number;
 }
 
-let cacheT = NaN;
-const cache: Nutation = { dPsiRad: 0, dEpsRad: 0 };
-
-/** Nutation in longitude and obliquity for TT days since J2000.0. Cached for the last instant. */
-export function nutationIau2000b(dTT: number): Nutation {
-  if (dTT === cacheT) return cache;
+/** Nutation in longitude and obliquity for TT days since J2000.0, straight from the 77 terms. */
+export function nutationIau2000bExact(dTT: number): Nutation {
   const t = dTT / DAYS_PER_CENTURY;
   // Delaunay arguments, Simon et al. (1994), linear parts as used by IAU 2000B.
   const el = ((485868.249036 + 1717915923.2178 * t) % TURN_ARCSEC) * ARCSEC;
@@ -125,9 +122,27 @@ export function nutationIau2000b(dTT: number): Nutation {
     dp += (TERMS[k + 5] + TERMS[k + 6] * t) * s + TERMS[k + 7] * c;
     de += (TERMS[k + 8] + TERMS[k + 9] * t) * c + TERMS[k + 10] * s;
   }
+  return { dPsiRad: dp * UNIT_RAD - 0.135e-3 * ARCSEC, dEpsRad: de * UNIT_RAD + 0.388e-3 * ARCSEC };
+}
+
+const between = nodeInterpolator(2, 1 / 8, (t) => {
+  const n = nutationIau2000bExact(t);
+  return [n.dPsiRad, n.dEpsRad];
+});
+let cacheT = NaN;
+const pair = [0, 0];
+const cache: Nutation = { dPsiRad: 0, dEpsRad: 0 };
+
+/**
+ * Nutation in longitude and obliquity for TT days since J2000.0: the terms at 3-hour nodes, cubic between
+ * them (ephemeris-nodes.ts; within 1 µas of the terms). Cached for the last instant.
+ */
+export function nutationIau2000b(dTT: number): Nutation {
+  if (dTT === cacheT) return cache;
+  between(dTT, pair);
   cacheT = dTT;
-  cache.dPsiRad = dp * UNIT_RAD - 0.135e-3 * ARCSEC;
-  cache.dEpsRad = de * UNIT_RAD + 0.388e-3 * ARCSEC;
+  cache.dPsiRad = pair[0];
+  cache.dEpsRad = pair[1];
   return cache;
 }
 

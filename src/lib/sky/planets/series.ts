@@ -16,6 +16,7 @@
  */
 import data from './vsop87b.json';
 import outer from './outer-corrections.json';
+import { nodeInterpolator } from '../ephemeris-nodes';
 
 export type SeriesBody = 'mercury' | 'venus' | 'earth' | 'mars' | 'jupiter' | 'saturn' | 'uranus' | 'neptune';
 
@@ -59,23 +60,8 @@ const M = [
   0, 0.397776982902, 0.917482137087,
 ];
 
-interface Cached { dTT: number; x: number; y: number; z: number }
-const cache = new Map<SeriesBody, Cached[]>();
-const CACHE_SLOTS = 3;
-
-/**
- * Heliocentric position (au, ICRS axes) at TT days since J2000.0 (TT is used for TDB: < 2 ms).
- * The last few instants of each body are remembered, so a frame that asks again costs nothing.
- */
-export function heliocentricIcrs(body: SeriesBody, dTT: number, out: number[] = [0, 0, 0]): number[] {
-  let slots = cache.get(body);
-  if (!slots) cache.set(body, (slots = []));
-  for (const c of slots) {
-    if (c.dTT === dTT) {
-      out[0] = c.x; out[1] = c.y; out[2] = c.z;
-      return out;
-    }
-  }
+/** Heliocentric position (au, ICRS axes) straight from the series, at TT days since J2000.0. */
+export function heliocentricIcrsExact(body: SeriesBody, dTT: number, out: number[] = [0, 0, 0]): number[] {
   const s = SERIES[body];
   const tau = dTT / 365250;
   let l = sum(s.L, tau), b = sum(s.B, tau), r = sum(s.R, tau);
@@ -89,7 +75,19 @@ export function heliocentricIcrs(body: SeriesBody, dTT: number, out: number[] = 
   out[0] = M[0] * x + M[1] * y + M[2] * z;
   out[1] = M[3] * x + M[4] * y + M[5] * z;
   out[2] = M[6] * x + M[7] * y + M[8] * z;
-  if (slots.length >= CACHE_SLOTS) slots.shift();
-  slots.push({ dTT, x: out[0], y: out[1], z: out[2] });
   return out;
+}
+
+const interpolators = new Map<SeriesBody, ReturnType<typeof nodeInterpolator>>();
+/** Node spacing (days) by body, so that the cubic stays within 0.5 m of the series (ephemeris-nodes.test.ts). */
+const NODE_DAYS: Partial<Record<SeriesBody, number>> = { mercury: 1 / 32, venus: 1 / 8, earth: 1 / 8 };
+
+/**
+ * Heliocentric position (au, ICRS axes) at TT days since J2000.0 (TT is used for TDB: < 2 ms): the series
+ * at nodes (NODE_DAYS), cubic between them (ephemeris-nodes.ts; within 0.5 m of the series).
+ */
+export function heliocentricIcrs(body: SeriesBody, dTT: number, out: number[] = [0, 0, 0]): number[] {
+  let f = interpolators.get(body);
+  if (!f) interpolators.set(body, (f = nodeInterpolator(3, NODE_DAYS[body] ?? 0.25, (t) => heliocentricIcrsExact(body, t))));
+  return f(dTT, out);
 }
