@@ -99,8 +99,10 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
 
   const summary = useMemo(() => nightSummary(data, timeZone), [data, timeZone]);
   const name = title ?? `Altitude over time, ${clock(from, timeZone)} to ${clock(to, timeZone)} ${timeZone}, ${data.targets.length} target${data.targets.length === 1 ? '' : 's'}`;
-  const ticks = hourTicks(from, to, timeZone, (to - from) / 3600000 > 14 ? 2 : 1);
   const plotW = width - M.left - M.right, plotH = height - M.top - M.bottom;
+  // hour labels at least ~44 px apart (a phone-wide chart labels every 2 or 3 hours)
+  const spanH = (to - from) / 3600000;
+  const ticks = hourTicks(from, to, timeZone, Math.max(spanH > 14 ? 2 : 1, Math.ceil((spanH * 44) / Math.max(1, plotW))));
   const text = c(SURFACE.text), muted = c(SURFACE.textMuted);
   // the Moon's own ink is pale grey: on paper its curve and label take the dim label ink
   const moonInk = ink === 'print' ? LABELS.labelDim.print : BODIES.moon.screen;

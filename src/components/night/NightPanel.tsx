@@ -43,6 +43,10 @@ export function NightPanel({ source, timeZone, revision, cursor, onCursor, comme
   const [at, setAt] = useState<string | undefined>(undefined);
   const [bodies, setBodies] = useState<string[]>([]);
   const [highlight, setHighlight] = useState<string | null>(null);
+  // The chart is drawn at the pixel size of its box (text stays at its own size) and a height that leaves
+  // it whole under the sky at laptop sizes: 30 % of the window, 240–420 px.
+  const chartBox = useRef<HTMLDivElement>(null);
+  const [chartSize, setChartSize] = useState<{ width: number; height: number } | null>(null);
   const [picking, setPicking] = useState(false);
   /** A click near a curve: the "Comment here" button at that point. */
   const [offer, setOffer] = useState<{ target: string; time: number; x: number; y: number } | null>(null);
@@ -60,6 +64,26 @@ export function NightPanel({ source, timeZone, revision, cursor, onCursor, comme
     const from = Date.parse(data.from), to = Date.parse(data.to);
     if (cursor < from - 3600000 || cursor > to + 3600000) setAt(new Date(Math.round(cursor / 60000) * 60000).toISOString().replace('.000Z', 'Z'));
   }, [cursor, data, night.isFetching]);
+
+  const hasData = !!data;
+  useEffect(() => {
+    const box = chartBox.current;
+    if (!box) return;
+    const measure = () => {
+      const width = Math.round(box.clientWidth);
+      if (width <= 0) return;
+      const height = Math.round(Math.min(420, Math.max(240, window.innerHeight * 0.3)));
+      setChartSize((s) => (s && s.width === width && s.height === height ? s : { width: Math.max(300, width), height }));
+    };
+    measure();
+    const ro = typeof ResizeObserver === 'function' ? new ResizeObserver(measure) : null;
+    ro?.observe(box);
+    window.addEventListener('resize', measure);
+    return () => {
+      ro?.disconnect();
+      window.removeEventListener('resize', measure);
+    };
+  }, [hasData]);
 
   const daylight = data ? data.sun.samples.some((s) => s.altitude > -0.84) : false;
   const svgHref = nightPath(source, params, 'night.svg');
@@ -117,9 +141,11 @@ export function NightPanel({ source, timeZone, revision, cursor, onCursor, comme
       {!data && !night.error && <p className="text-sm text-ink-300">Computing the night…</p>}
       {data && (
         <>
-          <div className="relative">
+          <div className="relative" ref={chartBox}>
             <AltitudeChart
               data={data}
+              width={chartSize?.width}
+              height={chartSize?.height}
               timeZone={timeZone}
               cursor={cursor}
               onCursor={onCursor}
