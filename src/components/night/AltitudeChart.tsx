@@ -175,6 +175,14 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
 
   const moonLabel = `Moon ${Math.round(data.moon.illumination * 100)} % lit, ${moonPhaseName(data.moon.phase)}`;
   const showCursor = cursor !== null && cursor >= from && cursor <= to;
+  // the cursor's time label goes to the foot of the plot when a curve's name stands where it would be
+  const cursorLabelLow =
+    showCursor &&
+    prepared.curves.some((cv) => {
+      if (cv.best.altitude < 2) return false;
+      const lx = x(Date.parse(cv.best.time)), ly = y(cv.best.altitude) - 6, cx = x(cursor!);
+      return ly < M.top + 26 && lx - 50 < cx + 44 && lx + 7 * cv.name.length + 50 > cx - 44;
+    });
 
   return (
     <svg
@@ -343,7 +351,7 @@ export function AltitudeChart({ data, timeZone, ink = 'screen', width = 800, hei
       {showCursor && (
         <g data-part="cursor" pointerEvents="none">
           <line x1={x(cursor!)} x2={x(cursor!)} y1={M.top} y2={M.top + plotH} stroke={c(LABELS.cardinal)} strokeWidth={1.5} />
-          <text x={x(cursor!)} y={M.top + 11} textAnchor={x(cursor!) > width - M.right - 40 ? 'end' : 'start'} dx={x(cursor!) > width - M.right - 40 ? -4 : 4} fontSize={11} fill={c(LABELS.cardinal)}>
+          <text x={x(cursor!)} y={cursorLabelLow ? M.top + plotH - 5 : M.top + 11} data-low={cursorLabelLow ? 'true' : undefined} textAnchor={x(cursor!) > width - M.right - 40 ? 'end' : 'start'} dx={x(cursor!) > width - M.right - 40 ? -4 : 4} fontSize={11} fill={c(LABELS.cardinal)}>
             {clock(cursor!, timeZone)}
           </text>
         </g>
