@@ -8,8 +8,8 @@
  *   twilight: the Sun's centre at −6° (civil), −12° (nautical), −18° (astronomical);
  *   transit: upper culmination, hour angle 0.
  * The model is this engine's own apparent place (apparent.ts / bodies.ts); the span is sampled every
- * 10 minutes and each sign change is refined by bisection to < 0.05 s. Two crossings
- * closer together than the step (a grazing target) can be missed.
+ * 10 minutes where a crossing is possible (hourly elsewhere, see `scan`) and each sign change is refined by
+ * bisection to < 0.05 s. Two crossings closer together than the step (a grazing target) can be missed.
  */
 import { Astronomy } from './astronomy';
 import { RAD } from './math';
@@ -82,7 +82,21 @@ interface Threshold {
   down: EventKind;
 }
 
-function scan(sample: (t: number) => Sample, from: number, to: number, thresholds: Threshold[], withTransit: boolean) {
+/**
+ * The scan takes coarse steps of COARSE × 10 minutes and looks inside one only where something can happen
+ * there. Any direction's geometric altitude changes at most at its angular speed in the horizon frame: the
+ * Earth's rotation (15.04°/h) plus the Moon's own motion and the turning of its parallax (< 0.95°/h), so
+ * ALT_RATE = 17°/h bounds every target. Between two samples with the same sign of a threshold's margin g,
+ * g can change sign (and back) only if |g₀| + |g₁| ≤ ALT_RATE · Δt; the hour angle grows monotonically by
+ * about 15° an hour, so a transit lies inside only if it goes from below 0 to 0 or more. Where neither can
+ * happen the inner 10-minute samples have the signs of the ends and are skipped; elsewhere they are taken,
+ * so every crossing is bracketed by the same 10-minute samples and refined by the same bisection as a scan
+ * of every step (`everyStep`), with the same result (tests/unit/sky/events-scan.test.ts).
+ */
+const COARSE = 6;
+const ALT_RATE_DEG_PER_MS = 17 / 3600000;
+
+function scan(sample: (t: number) => Sample, from: number, to: number, thresholds: Threshold[], withTransit: boolean, everyStep = false) {
   const events: { kind: EventKind; t: number }[] = [];
   const aboveAll: boolean[] = thresholds.map(() => true);
   const belowAll: boolean[] = thresholds.map(() => true);
@@ -94,9 +108,8 @@ function scan(sample: (t: number) => Sample, from: number, to: number, threshold
     return v;
   };
   thresholds.forEach((th, k) => { if (th.g(prev) > 0) belowAll[k] = false; else aboveAll[k] = false; });
-  for (let t = from + STEP_MS; ; t += STEP_MS) {
-    const tt = Math.min(t, to);
-    const cur = sample(tt);
+  /** One 10-minute step from prev to cur: sign changes refined, transits found, flags kept. */
+  const step = (cur: Sample) => {
     thresholds.forEach((th, k) => {
       const g0 = th.g(prev), g1 = th.g(cur);
       if (g1 > 0) belowAll[k] = false; else aboveAll[k] = false;
@@ -110,7 +123,29 @@ function scan(sample: (t: number) => Sample, from: number, to: number, threshold
       events.push({ kind: 'transit', t: root });
     }
     prev = cur;
-    if (tt >= to) break;
+  };
+  /** Nothing can happen between a and b (see above). */
+  const quiet = (a: Sample, b: Sample) => {
+    const reach = ALT_RATE_DEG_PER_MS * (b.t - a.t);
+    for (const th of thresholds) {
+      const g0 = th.g(a), g1 = th.g(b);
+      if ((g0 > 0) !== (g1 > 0) || Math.abs(g0) + Math.abs(g1) <= reach) return false;
+    }
+    if (!withTransit) return true;
+    const d = b.ha - a.ha;
+    return ((a.ha < 0) === (b.ha < 0) && d >= 0 && d < 30) || (a.ha > 150 && b.ha < -150);
+  };
+  for (let t0 = from; t0 < to; ) {
+    const tc = everyStep ? Math.min(t0 + STEP_MS, to) : Math.min(t0 + COARSE * STEP_MS, to);
+    const end = sample(tc);
+    if (everyStep || quiet(prev, end)) step(end);
+    else
+      for (let t = t0 + STEP_MS; ; t += STEP_MS) {
+        const tt = Math.min(t, tc);
+        step(tt === tc ? end : sample(tt));
+        if (tt >= tc) break;
+      }
+    t0 = tc;
   }
   return { events, aboveAll, belowAll };
 }
@@ -129,10 +164,15 @@ export interface RiseTransitSetResult {
   alwaysDown: boolean;
 }
 
-export function riseTransitSetDetailed(site: SiteInput, target: Target, fromDate: Date, toDate: Date): RiseTransitSetResult {
+/** `everyStep`: sample every 10-minute step (the reference the coarse scan is tested against). */
+export interface ScanOptions {
+  everyStep?: boolean;
+}
+
+export function riseTransitSetDetailed(site: SiteInput, target: Target, fromDate: Date, toDate: Date, opts: ScanOptions = {}): RiseTransitSetResult {
   const from = fromDate.getTime(), to = toDate.getTime();
   const th: Threshold = { g: (s) => s.alt - s.h0, up: 'rise', down: 'set' };
-  const r = scan(sampler(site, target), from, to, [th], true);
+  const r = scan(sampler(site, target), from, to, [th], true, opts.everyStep);
   return { events: toEvents(r.events, from, to), alwaysUp: r.aboveAll[0], alwaysDown: r.belowAll[0] };
 }
 
@@ -148,17 +188,17 @@ const TWILIGHTS: Threshold[] = [
 ];
 
 /** Civil, nautical and astronomical dawn and dusk between two instants. */
-export function twilightEvents(site: SiteInput, fromDate: Date, toDate: Date): SkyEvent[] {
+export function twilightEvents(site: SiteInput, fromDate: Date, toDate: Date, opts: ScanOptions = {}): SkyEvent[] {
   const from = fromDate.getTime(), to = toDate.getTime();
-  return toEvents(scan(sampler(site, { body: 'sun' }), from, to, TWILIGHTS, false).events, from, to);
+  return toEvents(scan(sampler(site, { body: 'sun' }), from, to, TWILIGHTS, false, opts.everyStep).events, from, to);
 }
 
 /** Everything the events API reports: rise/transit/set, plus the twilights for the Sun. */
-export function skyEvents(site: SiteInput, target: Target, fromDate: Date, toDate: Date): RiseTransitSetResult {
+export function skyEvents(site: SiteInput, target: Target, fromDate: Date, toDate: Date, opts: ScanOptions = {}): RiseTransitSetResult {
   const from = fromDate.getTime(), to = toDate.getTime();
   const isSun = 'body' in target && target.body === 'sun';
   const th: Threshold[] = [{ g: (s) => s.alt - s.h0, up: 'rise', down: 'set' }, ...(isSun ? TWILIGHTS : [])];
-  const r = scan(sampler(site, target), from, to, th, true);
+  const r = scan(sampler(site, target), from, to, th, true, opts.everyStep);
   return { events: toEvents(r.events, from, to), alwaysUp: r.aboveAll[0], alwaysDown: r.belowAll[0] };
 }
 
