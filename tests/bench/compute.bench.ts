@@ -20,6 +20,7 @@ import { cpus, loadavg } from 'node:os';
 import { execSync } from 'node:child_process';
 import { resolve } from 'node:path';
 import { startServer, type TestServer } from '../integration/helpers/server';
+import { WINDOWS_BODY } from './windows-body';
 
 const dist = resolve(process.env.ARMILLA_DIST ?? 'dist');
 const SECONDS = Number(process.env.COMPUTE_BENCH_SECONDS ?? 8);
@@ -37,18 +38,7 @@ const r1 = (x: number) => Math.round(x * 10) / 10;
  * (altitude band, two azimuth ranges, keyhole, Sun and Moon avoidance, a horizon mask, hour-angle and
  * declination limits) — the same body as `sky.bench.ts` (b). Site: an invented observatory.
  */
-const targets = Array.from({ length: 200 }, (_, i) => ({ name: `T${i + 1}`, ra: (i * 37.3) % 360, dec: -60 + ((i * 13.7) % 120) }));
-const BODY = JSON.stringify({
-  site: { lat: 37.3414, lon: -121.6429, height: 1283 },
-  envelope: {
-    name: 'full envelope', minAltitude: 20, maxAltitude: 87, azimuthRanges: [[300, 60], [90, 270]], keyholeRadius: 3,
-    sunAvoidance: 30, moonAvoidance: 10, horizonMask: Array.from({ length: 36 }, (_, k) => [k * 10, 5 + 10 * Math.abs(Math.sin(k))]),
-    hourAngleLimits: [-5.48, 5.23], declinationLimits: [-31.18, 64.1],
-  },
-  targets,
-  from: '2024-05-01T02:00:00Z',
-  to: '2024-05-01T14:00:00Z',
-});
+const BODY = JSON.stringify(WINDOWS_BODY);
 
 let addrSeq = 0;
 /** A fresh private address (RFC 1918, 10.0.0.0/8) for every request. */

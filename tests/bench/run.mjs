@@ -9,7 +9,7 @@ import { join } from 'node:path';
 const dir = 'tests/bench';
 const filter = process.argv.slice(2);
 const scripts = readdirSync(dir)
-  .filter((f) => /\.(mjs|ts)$/.test(f) && f !== 'run.mjs' && f !== 'load.ts' && !f.startsWith('_'))
+  .filter((f) => /\.(mjs|ts)$/.test(f) && f !== 'run.mjs' && f !== 'load.ts' && f !== 'windows-body.ts' && !f.startsWith('_'))
   .filter((f) => !filter.length || filter.some((p) => f.includes(p)))
   .sort();
 

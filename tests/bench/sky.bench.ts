@@ -13,6 +13,7 @@ import { loadCatalogue } from '../../src/lib/sky/catalogue';
 import { observeIcrs, skyFrame } from '../../src/lib/sky/apparent';
 import { starsToHorizontal } from '../../src/lib/sky/stars';
 import { windowsBodySchema, windowsResponse } from '../../src/lib/server/sky-api';
+import { WINDOWS_BODY } from './windows-body';
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -94,18 +95,7 @@ const a = {
 };
 
 // ---------- (b) windows ----------
-const targets = Array.from({ length: 200 }, (_, i) => ({ name: `T${i + 1}`, ra: (i * 37.3) % 360, dec: -60 + ((i * 13.7) % 120) }));
-const body = {
-  site: { lat: 37.3414, lon: -121.6429, height: 1283 },
-  envelope: {
-    name: 'full envelope', minAltitude: 20, maxAltitude: 87, azimuthRanges: [[300, 60], [90, 270]], keyholeRadius: 3,
-    sunAvoidance: 30, moonAvoidance: 10, horizonMask: Array.from({ length: 36 }, (_, k) => [k * 10, 5 + 10 * Math.abs(Math.sin(k))]),
-    hourAngleLimits: [-5.48, 5.23], declinationLimits: [-31.18, 64.1],
-  },
-  targets,
-  from: '2024-05-01T02:00:00Z',
-  to: '2024-05-01T14:00:00Z',
-};
+const body = WINDOWS_BODY;
 const RUNS_B = 20;
 for (let i = 0; i < 3; i++) windowsResponse(windowsBodySchema.parse(body)); // warm-up
 const inProc: number[] = [];

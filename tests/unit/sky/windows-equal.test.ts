@@ -12,18 +12,7 @@ import { visibilityWindowsBefore } from './reference/windows-before';
 import { refractionForTrueAltitudeDeg } from '../../../src/lib/sky/refraction';
 import type { Envelope } from '../../../src/lib/sky/envelope';
 import type { BodyName } from '../../../src/lib/sky/bodies';
-
-/** mulberry32: a small seeded generator, so a failure names its case and repeats. */
-function rng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { rng } from './helpers';
 
 function randomEnvelope(r: () => number): Envelope {
   const e: Envelope = {};
