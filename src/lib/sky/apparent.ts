@@ -89,11 +89,9 @@ const earthStateBetween = nodeInterpolator(6, 1 / 8, (tt) => {
   const s = Astronomy.HelioState(Astronomy.Body.Earth, Astronomy.AstroTime.FromTerrestrialTime(tt));
   return [s.x, s.y, s.z, s.vx, s.vy, s.vz];
 });
+/** [x, y, z, vx, vy, vz] of the Earth at astronomy-engine's TT `tt`, into `out`. */
+export const earthHelioState = (tt: number, out: Float64Array = new Float64Array(6)): Float64Array => earthStateBetween(tt, out);
 const earthState = new Float64Array(6);
-export function earthHelioState(tt: number): { x: number; y: number; z: number; vx: number; vy: number; vz: number } {
-  const s = earthStateBetween(tt, earthState);
-  return { x: s[0], y: s[1], z: s[2], vx: s[3], vy: s[4], vz: s[5] };
-}
 
 export interface SkyFrameOptions {
   refraction?: RefractionConstants;
@@ -134,15 +132,15 @@ export function skyFrame(site: SiteInput, date: Date, opts: SkyFrameOptions = {}
   for (let i = 0; i < 3; i++) vDiurnal[i] /= cMs;
 
   const astroTime = Astronomy.MakeTime(date);
-  const helio = earthHelioState(astroTime.tt);
+  const helio = earthHelioState(astroTime.tt, earthState);
   const sunV = sunBarycentricVelocity(astroTime);
   const vObs = Float64Array.of(
-    (helio.vx + sunV[0]) / C_AU_PER_DAY + vDiurnal[0],
-    (helio.vy + sunV[1]) / C_AU_PER_DAY + vDiurnal[1],
-    (helio.vz + sunV[2]) / C_AU_PER_DAY + vDiurnal[2],
+    (helio[3] + sunV[0]) / C_AU_PER_DAY + vDiurnal[0],
+    (helio[4] + sunV[1]) / C_AU_PER_DAY + vDiurnal[1],
+    (helio[5] + sunV[2]) / C_AU_PER_DAY + vDiurnal[2],
   );
   const v2 = vObs[0] * vObs[0] + vObs[1] * vObs[1] + vObs[2] * vObs[2];
-  const eh = [helio.x + obsGeoAu[0], helio.y + obsGeoAu[1], helio.z + obsGeoAu[2]];
+  const eh = [helio[0] + obsGeoAu[0], helio[1] + obsGeoAu[1], helio[2] + obsGeoAu[2]];
   const em = Math.hypot(eh[0], eh[1], eh[2]);
 
   return {

@@ -53,6 +53,7 @@ export interface BodyVector {
 
 const scratchE = [0, 0, 0];
 const scratchM = [0, 0, 0];
+const scratchP = [0, 0, 0];
 
 /**
  * The Moon's geometric geocentric position (au, EQJ = ICRS axes), astronomy-engine's series at hourly
@@ -62,7 +63,6 @@ export const moonGeocentric = nodeInterpolator(3, 1 / 24, (tt) => {
   const v = Astronomy.GeoMoon(Astronomy.AstroTime.FromTerrestrialTime(tt));
   return [v.x, v.y, v.z];
 });
-const scratchP = [0, 0, 0];
 
 /**
  * Geometric direction (au, ICRS axes) from the frame's observer to the Sun or a planet, with light
