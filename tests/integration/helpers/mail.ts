@@ -5,7 +5,7 @@
 import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
-import { freePort } from './server';
+import { freePort, portTaken } from './server';
 
 export interface FakeMail {
   to: string[];
@@ -39,6 +39,17 @@ interface RawMail {
 }
 
 export async function startMailFake(): Promise<MailFake> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await launchMailFake();
+    } catch (e) {
+      // a port taken between freePort's check and maildev's bind: try two other ports
+      if (attempt >= 3 || !portTaken(String(e))) throw e;
+    }
+  }
+}
+
+async function launchMailFake(): Promise<MailFake> {
   const smtp = await freePort();
   const web = await freePort();
   let out = '';
@@ -58,7 +69,10 @@ export async function startMailFake(): Promise<MailFake> {
     } catch {
       /* not up yet */
     }
-    if (Date.now() > deadline) throw new Error(`maildev did not start: ${out}`);
+    if (Date.now() > deadline) {
+      proc.kill('SIGKILL');
+      throw new Error(`maildev did not start: ${out}`);
+    }
     await new Promise((r) => setTimeout(r, 100));
   }
   const all = async (): Promise<FakeMail[]> => {

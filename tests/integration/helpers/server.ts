@@ -1,22 +1,55 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { openDb } from '../../../src/lib/server/db/client';
 import { migrateDb } from '../../../src/lib/server/db/migrate';
 
-export async function freePort(): Promise<number> {
-  return new Promise((res, rej) => {
+/** Ports handed out by this process, so two calls never return the same one. */
+const handedOut = new Set<number>();
+
+/**
+ * The range free ports are drawn from: below the kernel's ephemeral range (Linux default 32768–60999,
+ * /proc/sys/net/ipv4/ip_local_port_range). listen(0) picks from the ephemeral range, where an outgoing
+ * connection of any test can take the port as its local end between the check and the child's own bind
+ * (CI failed once so: maildev's EADDRINUSE). Outgoing connections never use a port below that range.
+ */
+function portRange(): [number, number] {
+  try {
+    const lo = Number(readFileSync('/proc/sys/net/ipv4/ip_local_port_range', 'utf8').trim().split(/\s+/)[0]);
+    if (Number.isFinite(lo) && lo > 12_000) return [10_000, lo];
+  } catch {
+    /* not Linux: fall back to a range under the IANA dynamic ports */
+  }
+  return [20_000, 32_768];
+}
+
+function canBind(port: number): Promise<boolean> {
+  return new Promise((res) => {
     const s = createServer();
     s.unref();
-    s.on('error', rej);
-    s.listen(0, '127.0.0.1', () => {
-      const a = s.address();
-      s.close(() => (typeof a === 'object' && a ? res(a.port) : rej(new Error('no port'))));
-    });
+    s.once('error', () => res(false));
+    s.listen(port, '127.0.0.1', () => s.close(() => res(true)));
   });
 }
+
+/** A free TCP port on 127.0.0.1, at random below the ephemeral range, never the same twice in one process. */
+export async function freePort(): Promise<number> {
+  const [lo, hi] = portRange();
+  for (let i = 0; i < 500; i++) {
+    const port = lo + Math.floor(Math.random() * (hi - lo));
+    if (handedOut.has(port)) continue;
+    if (await canBind(port)) {
+      handedOut.add(port);
+      return port;
+    }
+  }
+  throw new Error(`no free port in ${lo}–${hi}`);
+}
+
+/** True when a child's output says its port was taken after freePort checked it (another test file's random pick). */
+export const portTaken = (log: string): boolean => /EADDRINUSE/.test(log);
 
 export interface TestServer {
   url: string;
@@ -41,15 +74,21 @@ export interface StartOptions {
   dbUrl?: string;
 }
 
-async function waitHealthy(url: string, proc: ChildProcess, log: () => string): Promise<void> {
+/**
+ * Waits until this process says it listens on `url` (its own line in the log after `since`), then until health
+ * answers. The line first: a health answer alone could come from another process that took the port.
+ */
+async function waitHealthy(url: string, proc: ChildProcess, log: () => string, since = 0): Promise<void> {
   const deadline = Date.now() + 30_000;
   while (Date.now() < deadline) {
     if (proc.exitCode !== null) throw new Error(`server exited (${proc.exitCode}):\n${log()}`);
-    try {
-      const r = await fetch(`${url}/api/health`);
-      if (r.ok) return;
-    } catch {
-      /* not up yet */
+    if (log().slice(since).includes(`listening on ${url}`)) {
+      try {
+        const r = await fetch(`${url}/api/health`);
+        if (r.ok) return;
+      } catch {
+        /* not up yet */
+      }
     }
     await new Promise((r) => setTimeout(r, 100));
   }
@@ -69,8 +108,8 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
     }
     db.close();
   }
-  const port = await freePort();
-  const url = `http://127.0.0.1:${port}`;
+  let port = await freePort();
+  let url = `http://127.0.0.1:${port}`;
   let out = '';
   const launch = () => {
     // ARMILLA_SERVER_NODE_ARGS: extra node flags for the server, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof` to profile a load run
@@ -91,12 +130,26 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
     proc.stderr?.on('data', (d) => (out += d));
     return proc;
   };
+  // A port taken between freePort's check and the server's bind: start again on another one
+  let proc = launch();
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await waitHealthy(url, proc, () => out);
+      break;
+    } catch (e) {
+      if (attempt >= 3 || !portTaken(out)) throw e;
+      port = await freePort();
+      url = `http://127.0.0.1:${port}`;
+      out = '';
+      proc = launch();
+    }
+  }
   const server: TestServer = {
     url,
     port,
     dbUrl,
     dir,
-    proc: launch(),
+    proc,
     log: () => out,
     kill: async (signal = 'SIGTERM') => {
       const p = server.proc;
@@ -108,14 +161,14 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
     },
     restart: async () => {
       await server.kill();
+      const since = out.length;
       server.proc = launch();
-      await waitHealthy(url, server.proc, server.log);
+      await waitHealthy(url, server.proc, server.log, since);
     },
     stop: async () => {
       await server.kill();
       if (!opts.dbUrl) rmSync(dir, { recursive: true, force: true });
     },
   };
-  await waitHealthy(url, server.proc, server.log);
   return server;
 }
