@@ -20,6 +20,13 @@ import Negotiator from 'negotiator';
 import send from 'send';
 
 /**
+ * The built server runs React and the other libraries in their production builds: they choose by
+ * NODE_ENV when first loaded, and `npm start` (unset) or a test harness ("test") would give the
+ * development builds (React's checks and warnings on every server render). Set before the entry loads.
+ */
+process.env.NODE_ENV = 'production';
+
+/**
  * Astro's request handler, from the entry the build wrote beside this file. Imported by URL so that
  * the source tree (where no entry.mjs exists) has no import it cannot resolve.
  */
