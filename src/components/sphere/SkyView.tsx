@@ -6,7 +6,8 @@
  * embed). Mount with client:only="react".
  */
 import { Component, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
-import { DEFAULT_LAYERS, type Layers } from '../../lib/contracts/scene-doc';
+import type { Layers } from '../../lib/contracts/scene-doc';
+import { DEFAULT_LAYERS } from '../../lib/contracts/layers';
 import { type CamState, type CommentAnchor, type PinLike, type UiState, type ViewHandles, ViewContext } from './context';
 import * as engine from './sky-adapter';
 import type { EnvelopeLike } from './sky-adapter';

@@ -4,6 +4,7 @@
  */
 import { boundedArray } from '../bounded-array';
 import { z } from 'zod';
+import { DEFAULT_LAYERS, LAYER_KEYS, type LayerKey } from './layers';
 
 export const isoUtc = z
   .string()
@@ -51,12 +52,7 @@ export const siteSchema = z.object({
 });
 export type Site = z.infer<typeof siteSchema>;
 
-export const LAYER_KEYS = [
-  'horizon', 'equator', 'ecliptic', 'meridian', 'primeVertical', 'galactic',
-  'altAzGrid', 'raDecGrid', 'eclipticGrid', 'referencePoints',
-  'stars', 'starLabels', 'bodies', 'bodyLabels', 'envelope', 'targets', 'pins', 'comments', 'ground',
-] as const;
-export type LayerKey = (typeof LAYER_KEYS)[number];
+export { DEFAULT_LAYERS, LAYER_KEYS, type LayerKey };
 
 export const layersSchema = z
   .object({
@@ -65,13 +61,6 @@ export const layersSchema = z
   })
   .partial();
 export type Layers = z.infer<typeof layersSchema>;
-
-export const DEFAULT_LAYERS: Required<Layers> = {
-  horizon: true, equator: true, ecliptic: true, meridian: true, primeVertical: false, galactic: false,
-  altAzGrid: false, raDecGrid: false, eclipticGrid: false, referencePoints: true,
-  stars: true, starLabels: true, bodies: true, bodyLabels: true, envelope: true, targets: true, pins: true,
-  comments: true, ground: true, limitingMagnitude: 5.5,
-};
 
 export const cameraSchema = z.object({
   mode: z.enum(['observer', 'sphere']).default('observer'),
