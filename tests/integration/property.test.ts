@@ -141,6 +141,15 @@ const wrongValue = fc.oneof(
   fc.integer({ min: 10_000, max: 300_000 }).map((n) => 'x'.repeat(n)),
 );
 
+const parsesAsJson = (text: string) => {
+  try {
+    JSON.parse(text);
+    return true;
+  } catch {
+    return false;
+  }
+};
+
 const NOT_JSON = ['{', '{"a":', '[1,2', 'nul', 'undefined', "{'a':1}", '{"a":1}}', '\u0000', '{"a":1,}', 'NaN', '0x10', '"\\ud800', '<xml/>'];
 
 const recipe: fc.Arbitrary<Recipe> = fc.oneof(
@@ -150,6 +159,8 @@ const recipe: fc.Arbitrary<Recipe> = fc.oneof(
     weight: 2,
     arbitrary: fc
       .oneof(fc.constantFrom(...NOT_JSON), fc.string({ maxLength: 60 }).map((t) => `{${t}`))
+      // "{" and a random string can be JSON after all ("{}": CI failed once so, a restore accepted it)
+      .filter((text) => !parsesAsJson(text))
       .map((text): Recipe => ({ kind: 'not-json', text })),
   },
   { weight: 1, arbitrary: fc.integer({ min: 1_000_001, max: 1_500_000 }).map((size): Recipe => ({ kind: 'huge', size })) },
