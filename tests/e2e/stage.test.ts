@@ -14,6 +14,7 @@ import { expect } from 'vitest';
 import type { Page } from 'playwright-core';
 import { DEMO } from '../integration/helpers/client';
 import { browserTest, e2eWorld, newPage, screenshot } from './helpers/browser';
+import { loadToFirstFrame } from './helpers/first-frame';
 
 const world = e2eWorld();
 
@@ -233,38 +234,22 @@ browserTest('the sky fills the workspace (≥ 60 % at 1440×900, ≥ 65 % at 192
 }, 400_000);
 
 browserTest('a viewer link sends at most 400 kB of JavaScript before its first frame; zod and the star catalogue come after it', async () => {
-  // The issue's budget (issue 12), counted as `npm run bench -- viewer-link` counts it: bytes on the wire of
-  // every script that finished loading before the sky's first frame. A size, not a time: a slower machine
-  // can only move files past the first frame, never before it.
+  // The issue's budget (issue 12), counted as `npm run bench -- viewer-link` counts it (helpers/first-frame.ts).
   const ed = await signedIn({ width: 1280, height: 800 });
   const id = await equinoxId(ed);
   const { url } = await (await ed.context.request.post(`/api/scenes/${id}/links`, { data: { role: 'viewer' } })).json();
   const viewer = await newPage(await world.browser(), { viewport: { width: 1440, height: 900 } });
-  const cdp = await viewer.context.newCDPSession(viewer.page);
-  await cdp.send('Network.enable');
-  const scripts = new Map<string, string>();
-  const done: { id: string; at: number; bytes: number }[] = [];
-  let t0: number | null = null;
-  cdp.on('Network.requestWillBeSent', (e) => {
-    if (t0 === null && e.type === 'Document') t0 = e.timestamp;
-  });
-  cdp.on('Network.responseReceived', (e) => {
-    if (e.type === 'Script') scripts.set(e.requestId, e.response.url);
-  });
-  cdp.on('Network.loadingFinished', (e) => done.push({ id: e.requestId, at: e.timestamp, bytes: e.encodedDataLength }));
-  await viewer.page.goto(url);
-  await viewer.page.waitForFunction(() => (window as unknown as { __armillaStats?: { firstFrameAt: number | null } }).__armillaStats?.firstFrameAt != null, null, { timeout: 60_000 });
-  const firstFrameMs = await viewer.page.evaluate(() => (window as unknown as { __armillaStats: { firstFrameAt: number } }).__armillaStats.firstFrameAt);
-  const before = done.filter((d) => scripts.has(d.id) && d.at <= t0! + firstFrameMs / 1000 + 0.005);
-  const files = before.map((d) => scripts.get(d.id)!.split('/').pop()!);
+  const { firstFrameMs, before: loaded, cdp } = await loadToFirstFrame(viewer.context, viewer.page, url);
+  const before = loaded.filter((d) => d.type === 'Script');
+  const files = before.map((d) => d.url.split('/').pop()!);
   const bytes = before.reduce((a, d) => a + d.bytes, 0);
   expect(bytes, `JavaScript before the first frame (${files.join(', ')})`).toBeLessThanOrEqual(400_000);
   expect(files.some((f) => f.startsWith('SkyView.')), 'the sky view itself is counted').toBe(true);
   expect(files.filter((f) => f.startsWith('catalogue.')), 'the star catalogue loads after the first frame').toEqual([]);
   for (const d of before) {
-    const { body, base64Encoded } = await cdp.send('Network.getResponseBody', { requestId: d.id });
+    const { body, base64Encoded } = await cdp.send('Network.getResponseBody', { requestId: d.requestId });
     const text = base64Encoded ? Buffer.from(body, 'base64').toString('utf8') : body;
-    expect(text.includes('"ZodError"'), `zod in ${scripts.get(d.id)} before the first frame`).toBe(false);
+    expect(text.includes('"ZodError"'), `zod in ${d.url} before the first frame`).toBe(false);
   }
   console.log(`[viewer link] ${(bytes / 1000).toFixed(1)} kB of JavaScript in ${files.length} files before the first frame (${Math.round(firstFrameMs)} ms)`);
   expect(viewer.realErrors()).toEqual([]);
