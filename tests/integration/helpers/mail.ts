@@ -5,7 +5,7 @@
 import { spawn } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
-import { freePort, portTaken } from './server';
+import { freePort, onFreshPorts } from './server';
 
 export interface FakeMail {
   to: string[];
@@ -38,16 +38,7 @@ interface RawMail {
   html?: string;
 }
 
-export async function startMailFake(): Promise<MailFake> {
-  for (let attempt = 1; ; attempt++) {
-    try {
-      return await launchMailFake();
-    } catch (e) {
-      // a port taken between freePort's check and maildev's bind: try two other ports
-      if (attempt >= 3 || !portTaken(String(e))) throw e;
-    }
-  }
-}
+export const startMailFake = (): Promise<MailFake> => onFreshPorts(launchMailFake);
 
 async function launchMailFake(): Promise<MailFake> {
   const smtp = await freePort();

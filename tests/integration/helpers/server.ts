@@ -48,8 +48,20 @@ export async function freePort(): Promise<number> {
   throw new Error(`no free port in ${lo}–${hi}`);
 }
 
-/** True when a child's output says its port was taken after freePort checked it (another test file's random pick). */
-export const portTaken = (log: string): boolean => /EADDRINUSE/.test(log);
+/**
+ * Runs `start` (which takes its ports from freePort) again, up to 3 times in all, when it fails because a
+ * port was taken between freePort's check and the child's bind (another test file's random pick): the
+ * error names EADDRINUSE, as the child's output it carries does.
+ */
+export async function onFreshPorts<T>(start: () => Promise<T>): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await start();
+    } catch (e) {
+      if (attempt >= 3 || !/EADDRINUSE/.test(String(e))) throw e;
+    }
+  }
+}
 
 export interface TestServer {
   url: string;
@@ -108,8 +120,8 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
     }
     db.close();
   }
-  let port = await freePort();
-  let url = `http://127.0.0.1:${port}`;
+  let port = 0;
+  let url = '';
   let out = '';
   const launch = () => {
     // ARMILLA_SERVER_NODE_ARGS: extra node flags for the server, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof` to profile a load run
@@ -130,20 +142,14 @@ export async function startServer(opts: StartOptions = {}): Promise<TestServer> 
     proc.stderr?.on('data', (d) => (out += d));
     return proc;
   };
-  // A port taken between freePort's check and the server's bind: start again on another one
-  let proc = launch();
-  for (let attempt = 1; ; attempt++) {
-    try {
-      await waitHealthy(url, proc, () => out);
-      break;
-    } catch (e) {
-      if (attempt >= 3 || !portTaken(out)) throw e;
-      port = await freePort();
-      url = `http://127.0.0.1:${port}`;
-      out = '';
-      proc = launch();
-    }
-  }
+  const proc = await onFreshPorts(async () => {
+    port = await freePort();
+    url = `http://127.0.0.1:${port}`;
+    out = '';
+    const p = launch();
+    await waitHealthy(url, p, () => out);
+    return p;
+  });
   const server: TestServer = {
     url,
     port,
